@@ -1,0 +1,426 @@
+"""Compiled kernels on bit-packed GF(2) rows.
+
+Every function here is compiled by numba with an explicit signature and
+``cache=True``; it takes arrays and integers only, reads no module globals and
+does no I/O. The public modules (:mod:`gf2codes.linalg`, :mod:`gf2codes.distance`,
+:mod:`gf2codes.weights`) call them; :mod:`gf2codes._reference` holds plain-Python
+twins that the tests run against the same inputs.
+
+Packing convention (used throughout gf2codes): coordinate ``j`` of a row lives in
+word ``j >> 6`` at bit ``j & 63`` (least significant bit first). A matrix of ``r``
+rows and ``n`` columns is a C-contiguous ``uint64`` array of shape
+``(r, (n + 63) // 64)``; bits past ``n`` are zero.
+
+Several kernels take the *transposed* packed layout ``GT`` of shape ``(W, k)``:
+word ``w`` of every row is contiguous, so the innermost loops (one XOR and one
+popcount per codeword) vectorise.
+"""
+
+from __future__ import annotations
+
+import numba as nb
+import numpy as np
+from llvmlite import ir
+from numba import types
+from numba.core import cgutils
+from numba.extending import intrinsic
+
+__all__ = [
+    "popcount64",
+    "ctz64",
+    "rref_inplace",
+    "gray_min_weight",
+    "gray_weight_histogram",
+    "combination_min_weight",
+    "combination_table_min_weight",
+    "subset_sums",
+]
+
+_u64 = types.uint64
+_i64 = types.int64
+
+
+@intrinsic
+def _llvm_ctpop(typingctx, x):  # pragma: no cover - compiled
+    """LLVM's ``ctpop`` on a uint64 (one POPCNT instruction where the CPU has it)."""
+    if x != _u64:
+        return None
+
+    def codegen(context, builder, signature, args):
+        fnty = ir.FunctionType(ir.IntType(64), [ir.IntType(64)])
+        fn = cgutils.get_or_insert_function(builder.module, fnty, "llvm.ctpop.i64")
+        return builder.call(fn, args)
+
+    return _u64(_u64), codegen
+
+
+@intrinsic
+def _llvm_cttz(typingctx, x):  # pragma: no cover - compiled
+    """LLVM's ``cttz`` on a uint64 (count of trailing zero bits; 64 for zero)."""
+    if x != _u64:
+        return None
+
+    def codegen(context, builder, signature, args):
+        fnty = ir.FunctionType(ir.IntType(64), [ir.IntType(64), ir.IntType(1)])
+        fn = cgutils.get_or_insert_function(builder.module, fnty, "llvm.cttz.i64")
+        return builder.call(fn, [args[0], ir.Constant(ir.IntType(1), 0)])
+
+    return _u64(_u64), codegen
+
+
+@nb.njit(_u64(_u64), cache=True, inline="always")
+def popcount64(x):  # pragma: no cover - compiled
+    """Number of set bits of a 64-bit word."""
+    return _llvm_ctpop(x)
+
+
+@nb.njit(_u64(_u64), cache=True, inline="always")
+def ctz64(x):  # pragma: no cover - compiled
+    """Number of trailing zero bits of a 64-bit word (64 for zero)."""
+    return _llvm_cttz(x)
+
+
+@nb.njit(_i64[:](_u64[:, ::1], _i64[::1]), cache=True, nogil=True)
+def rref_inplace(M, order):  # pragma: no cover - compiled
+    """Reduce packed rows ``M`` to reduced row echelon form, in place.
+
+    Columns are tried as pivots in the sequence ``order`` (a permutation of a
+    subset of column indices). On return the first ``rank`` rows of ``M`` are the
+    reduced basis, row ``i`` having its pivot in column ``pivots[i]`` and that
+    column zero in every other row; the remaining rows are zero.
+
+    Returns the pivot columns, in the order the pivots were found.
+    """
+    r, W = M.shape
+    pivots = np.empty(min(r, order.shape[0]), dtype=np.int64)
+    rank = 0
+    for t in range(order.shape[0]):
+        if rank == r:
+            break
+        col = order[t]
+        wd = col >> 6
+        bit = np.uint64(1) << np.uint64(col & 63)
+        sel = -1
+        for i in range(rank, r):
+            if M[i, wd] & bit:
+                sel = i
+                break
+        if sel < 0:
+            continue
+        if sel != rank:
+            for w in range(W):
+                tmp = M[sel, w]
+                M[sel, w] = M[rank, w]
+                M[rank, w] = tmp
+        for i in range(r):
+            if i != rank and (M[i, wd] & bit):
+                for w in range(W):
+                    M[i, w] ^= M[rank, w]
+        pivots[rank] = col
+        rank += 1
+    return pivots[:rank].copy()
+
+
+@nb.njit(cache=True, inline="always")
+def _weight(s, W):  # pragma: no cover - compiled
+    wt = np.uint64(0)
+    for w in range(W):
+        wt += popcount64(s[w])
+    return wt
+
+
+@nb.njit(cache=True, inline="always")
+def _scan_min(s, T, lo, hi, W):  # pragma: no cover - compiled
+    """Least weight of ``s ^ T[:, i]`` over ``lo <= i < hi`` (vectorised for W <= 2)."""
+    m = np.uint64(1 << 62)
+    if W == 1:
+        s0 = s[0]
+        T0 = T[0]
+        for i in range(lo, hi):
+            wt = popcount64(s0 ^ T0[i])
+            if wt < m:
+                m = wt
+    elif W == 2:
+        s0 = s[0]
+        s1 = s[1]
+        T0 = T[0]
+        T1 = T[1]
+        for i in range(lo, hi):
+            wt = popcount64(s0 ^ T0[i]) + popcount64(s1 ^ T1[i])
+            if wt < m:
+                m = wt
+    else:
+        for i in range(lo, hi):
+            wt = np.uint64(0)
+            for w in range(W):
+                wt += popcount64(s[w] ^ T[w, i])
+            if wt < m:
+                m = wt
+    return m
+
+
+@nb.njit(cache=True, inline="always")
+def _scan_find(s, T, lo, hi, W, target):  # pragma: no cover - compiled
+    """First ``i`` in ``[lo, hi)`` with weight of ``s ^ T[:, i]`` equal to ``target``."""
+    for i in range(lo, hi):
+        wt = np.uint64(0)
+        for w in range(W):
+            wt += popcount64(s[w] ^ T[w, i])
+        if wt == target:
+            return i
+    return -1
+
+
+@nb.njit(
+    types.Tuple((_i64, _i64, _i64))(_u64[:, ::1], _u64[:, ::1], _i64, _i64, _i64),
+    cache=True,
+    nogil=True,
+)
+def gray_min_weight(OT, TT, g_start, g_stop, stop_at):  # pragma: no cover - compiled
+    """Least weight over a Gray-code block of codewords.
+
+    The code is spanned by ``a`` outer rows ``OT`` (transposed, shape ``(W, a)``) and
+    ``b`` inner rows whose ``2**b`` combinations are tabulated in ``TT`` (shape
+    ``(W, 2**b)``, ``TT[:, 0] == 0``). Outer Gray-code indices ``g_start <= g <
+    g_stop`` are visited; for each, all ``2**b`` inner combinations (one XOR and one
+    popcount each). The zero codeword (``g == 0``, inner index 0) is skipped.
+
+    Stops early once a weight ``<= stop_at`` is seen.
+
+    Returns ``(best_weight, outer_gray_word, inner_index)``; ``best_weight`` is
+    ``2**62`` when the block held no nonzero codeword.
+    """
+    W = OT.shape[0]
+    a = OT.shape[1]
+    nt = TT.shape[1]
+    s = np.zeros(W, dtype=np.uint64)
+    g0 = np.uint64(g_start)
+    gray = g0 ^ (g0 >> np.uint64(1))
+    for j in range(a):
+        if (gray >> np.uint64(j)) & np.uint64(1):
+            for w in range(W):
+                s[w] ^= OT[w, j]
+    best = np.uint64(1 << 62)
+    best_gray = np.int64(-1)
+    best_inner = np.int64(-1)
+    for g in range(g_start, g_stop):
+        if g > g_start:
+            j = ctz64(np.uint64(g))
+            for w in range(W):
+                s[w] ^= OT[w, j]
+        lo = 1 if g == 0 else 0
+        m = _scan_min(s, TT, lo, nt, W)
+        if m < best:
+            best = m
+            gg = np.uint64(g)
+            best_gray = np.int64(gg ^ (gg >> np.uint64(1)))
+            best_inner = _scan_find(s, TT, lo, nt, W, m)
+            if np.int64(best) <= stop_at:
+                break
+    return np.int64(best), best_gray, best_inner
+
+
+@nb.njit(_i64[::1](_u64[:, ::1], _u64[:, ::1], _i64, _i64, _i64), cache=True, nogil=True)
+def gray_weight_histogram(OT, TT, g_start, g_stop, n):  # pragma: no cover - compiled
+    """Histogram of codeword weights over a Gray-code block (layout as in
+    :func:`gray_min_weight`); the zero codeword is included when ``g_start == 0``."""
+    W = OT.shape[0]
+    a = OT.shape[1]
+    nt = TT.shape[1]
+    hist = np.zeros(n + 1, dtype=np.int64)
+    s = np.zeros(W, dtype=np.uint64)
+    g0 = np.uint64(g_start)
+    gray = g0 ^ (g0 >> np.uint64(1))
+    for j in range(a):
+        if (gray >> np.uint64(j)) & np.uint64(1):
+            for w in range(W):
+                s[w] ^= OT[w, j]
+    for g in range(g_start, g_stop):
+        if g > g_start:
+            j = ctz64(np.uint64(g))
+            for w in range(W):
+                s[w] ^= OT[w, j]
+        if W == 1:
+            s0 = s[0]
+            T0 = TT[0]
+            for i in range(nt):
+                hist[popcount64(s0 ^ T0[i])] += 1
+        else:
+            for i in range(nt):
+                wt = np.uint64(0)
+                for w in range(W):
+                    wt += popcount64(s[w] ^ TT[w, i])
+                hist[wt] += 1
+    return hist
+
+
+@nb.njit(
+    types.Tuple((_i64, _i64, types.boolean))(
+        _u64[:, ::1], _i64, _i64[::1], _i64, _i64, _i64[::1], _u64[::1]
+    ),
+    cache=True,
+    nogil=True,
+)
+def combination_min_weight(GT, w, state, budget, stop_at, best_combo, base):  # pragma: no cover
+    """Least weight over ``base`` XOR the sums of exactly ``w >= 1`` of the ``k`` rows of ``GT``.
+
+    ``GT`` is the transposed packed generator, shape ``(W, k)``. Combinations are
+    visited in lexicographic order, grouped by their first ``w - 1`` elements (the
+    *prefix*, held in ``state[:w-1]``); for each prefix the last element runs over
+    every later row, costing one XOR and one popcount per codeword in a loop that
+    vectorises. The prefix in ``state`` is where to start and, on return, where to
+    resume; ``state`` must be a valid prefix (``state[i] <= k - w + i``) and
+    ``state[w-1:]`` is ignored.
+
+    At least ``budget`` codewords are visited unless the enumeration ends or a
+    weight ``<= stop_at`` is seen first; a new least weight writes its combination
+    into ``best_combo[:w]``.
+
+    Returns ``(visited, best_weight, finished)``; ``best_weight`` is ``2**62`` when
+    nothing was visited, ``finished`` is true when every combination is done.
+    """
+    W = GT.shape[0]
+    k = GT.shape[1]
+    p = w - 1
+    part = np.zeros((max(p, 1) + 1, W), dtype=np.uint64)
+    # part[l + 1] = base XOR rows state[0..l]; part[0] = base.
+    for q in range(W):
+        part[0, q] = base[q]
+    for l in range(p):
+        for q in range(W):
+            part[l + 1, q] = part[l, q] ^ GT[q, state[l]]
+    best = np.uint64(1 << 62)
+    visited = np.int64(0)
+    while True:
+        lo = state[p - 1] + 1 if p > 0 else 0
+        s = part[p]
+        m = _scan_min(s, GT, lo, k, W)
+        visited += k - lo
+        if m < best:
+            best = m
+            i = _scan_find(s, GT, lo, k, W, m)
+            for l in range(p):
+                best_combo[l] = state[l]
+            best_combo[p] = i
+        # advance the prefix (also when stopping, so a resumed call does not repeat it)
+        i = p - 1
+        while i >= 0 and state[i] == k - w + i:
+            i -= 1
+        if i < 0:
+            return visited, np.int64(best), True
+        state[i] += 1
+        for j in range(i + 1, p):
+            state[j] = state[j - 1] + 1
+        for l in range(i, p):
+            for q in range(W):
+                part[l + 1, q] = part[l, q] ^ GT[q, state[l]]
+        if np.int64(best) <= stop_at or visited >= budget:
+            return visited, np.int64(best), False
+
+
+@nb.njit(
+    types.Tuple((_i64, _i64, _i64, types.boolean))(
+        _u64[:, ::1], _i64, _i64[::1], _u64[:, ::1], _i64, _i64, _i64[::1], _u64[::1]
+    ),
+    cache=True,
+    nogil=True,
+)
+def combination_table_min_weight(AT, w1, state, TT, budget, stop_at, best_combo,
+                                 base):  # pragma: no cover
+    """Least weight over ``base`` XOR (a ``w1``-subset of the rows ``AT``) XOR (an entry of
+    ``TT``).
+
+    This is the split form of the enumeration of weight-``w`` combinations: the
+    ``k`` rows are cut into a head ``A`` (``AT``, transposed, shape ``(W, a)``) and a
+    tail ``B``; ``TT`` (shape ``(W, L)``) tabulates the sums of every
+    ``(w - w1)``-subset of ``B``. For each ``w1``-subset of ``A`` in lexicographic
+    order (``state[:w1]`` is where to start and, on return, where to resume) the
+    whole table is scanned with one XOR and one popcount per codeword, in a long
+    loop that vectorises.
+
+    Stops after the subset in which at least ``budget`` codewords have been visited
+    or a weight ``<= stop_at`` was seen; a new least weight writes the subset into
+    ``best_combo[:w1]``.
+
+    Returns ``(visited, best_weight, table_index, finished)``.
+    """
+    W = AT.shape[0]
+    a = AT.shape[1]
+    L = TT.shape[1]
+    part = np.zeros((w1 + 1, W), dtype=np.uint64)
+    for q in range(W):
+        part[0, q] = base[q]
+    for l in range(w1):
+        for q in range(W):
+            part[l + 1, q] = part[l, q] ^ AT[q, state[l]]
+    best = np.uint64(1 << 62)
+    best_t = np.int64(-1)
+    visited = np.int64(0)
+    while True:
+        s = part[w1]
+        m = _scan_min(s, TT, 0, L, W)
+        visited += L
+        if m < best:
+            best = m
+            best_t = _scan_find(s, TT, 0, L, W, m)
+            for l in range(w1):
+                best_combo[l] = state[l]
+        i = w1 - 1
+        while i >= 0 and state[i] == a - w1 + i:
+            i -= 1
+        if i < 0:
+            return visited, np.int64(best), best_t, True
+        state[i] += 1
+        for j in range(i + 1, w1):
+            state[j] = state[j - 1] + 1
+        for l in range(i, w1):
+            for q in range(W):
+                part[l + 1, q] = part[l, q] ^ AT[q, state[l]]
+        if np.int64(best) <= stop_at or visited >= budget:
+            return visited, np.int64(best), best_t, False
+
+
+@nb.njit(
+    types.Tuple((_u64[:, ::1], types.uint8[:, ::1]))(_u64[:, ::1], _i64),
+    cache=True,
+    nogil=True,
+)
+def subset_sums(rows, w):  # pragma: no cover - compiled
+    """Sums of every ``w``-subset of ``rows`` (shape ``(b, W)``), in lexicographic order.
+
+    Returns ``(sums, subsets)``: ``sums[t]`` (``W`` words) is the XOR of the rows
+    listed in ``subsets[t]`` (``w`` indices, increasing).
+    """
+    b, W = rows.shape
+    # number of subsets, C(b, w)
+    L = 1
+    for i in range(w):
+        L = L * (b - i) // (i + 1)
+    sums = np.zeros((L, W), dtype=np.uint64)
+    subsets = np.zeros((L, max(w, 1)), dtype=np.uint8)
+    if w == 0 or w > b:
+        return sums, subsets
+    c = np.arange(w)
+    part = np.zeros((w + 1, W), dtype=np.uint64)
+    for l in range(w):
+        for q in range(W):
+            part[l + 1, q] = part[l, q] ^ rows[c[l], q]
+    t = 0
+    while True:
+        for q in range(W):
+            sums[t, q] = part[w, q]
+        for l in range(w):
+            subsets[t, l] = c[l]
+        t += 1
+        i = w - 1
+        while i >= 0 and c[i] == b - w + i:
+            i -= 1
+        if i < 0:
+            break
+        c[i] += 1
+        for j in range(i + 1, w):
+            c[j] = c[j - 1] + 1
+        for l in range(i, w):
+            for q in range(W):
+                part[l + 1, q] = part[l, q] ^ rows[c[l], q]
+    return sums, subsets

@@ -1,0 +1,201 @@
+"""``gf2codes bounds``: what the bounds say about binary linear codes with given parameters.
+
+Four modes, chosen by which options are given:
+
+* ``--n N --k K``: every upper bound on ``d``, the best one, and the existence bounds;
+* ``--n N --d D``: the greatest dimension each bound allows;
+* ``--k K --d D``: the least length each bound allows (and which bounds force it);
+* ``--table --n A-B [--k C-D]``: a grid of the best upper bound on ``d``.
+"""
+
+from __future__ import annotations
+
+from rich.table import Table
+
+from .. import bounds as B
+from ..exceptions import ParameterError
+from ._common import add_json_flag, console, parse_range, print_json
+
+__all__ = ["register", "run"]
+
+_TITLES = {
+    "singleton": "Singleton",
+    "hamming": "Hamming (sphere packing)",
+    "plotkin": "Plotkin (with shortening)",
+    "griesmer": "Griesmer",
+    "elias": "Elias-Bassalygo",
+    "lp": "Delsarte LP (certified)",
+    "gilbert_varshamov": "Gilbert-Varshamov",
+    "varshamov": "Varshamov",
+}
+
+_TABLE_LIMIT = 128  # largest length accepted in --table mode (each cell may solve LPs)
+
+
+def register(subparsers) -> None:
+    p = subparsers.add_parser(
+        "bounds",
+        help="upper and existence bounds for binary linear [n, k, d] codes",
+        description="Bounds for binary linear codes. Give two of --n, --k, --d, "
+                    "or --table with a range of --n (and optionally --k).",
+    )
+    p.add_argument("--n", metavar="N", help="length (a range like 1-40 with --table)")
+    p.add_argument("--k", metavar="K", help="dimension (a range like 1-20 with --table)")
+    p.add_argument("--d", metavar="D", help="minimum distance")
+    p.add_argument("--table", action="store_true",
+                   help="print the best upper bound on d for every (n, k) in the ranges")
+    add_json_flag(p)
+
+
+def _int(name: str, text: str) -> int:
+    try:
+        return int(text, 10)
+    except (TypeError, ValueError):
+        raise ParameterError(f"Argument {name!r} must be an integer, not {text!r}.") from None
+
+
+def run(args) -> int:
+    given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
+    if args.table:
+        if "d" in given:
+            raise ParameterError("Argument 'd' must not be given with --table.")
+        if "n" not in given:
+            raise ParameterError("Argument 'n' must be given with --table (e.g. --n 1-40).")
+        return _run_table(args)
+    if given == {"n", "k"}:
+        return _run_nk(_int("n", args.n), _int("k", args.k), args.json)
+    if given == {"n", "d"}:
+        return _run_nd(_int("n", args.n), _int("d", args.d), args.json)
+    if given == {"k", "d"}:
+        return _run_kd(_int("k", args.k), _int("d", args.d), args.json)
+    raise ParameterError(
+        "Arguments must be exactly two of --n, --k, --d (or --table with --n), not "
+        + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
+    )
+
+
+def _mark(values: dict[str, int], best: int) -> dict[str, bool]:
+    return {name: value == best for name, value in values.items()}
+
+
+def _run_nk(n: int, k: int, as_json: bool) -> int:
+    upper = B.upper_bounds(n, k)  # validates n and k
+    best = B.best_upper(n, k)
+    lower = B.lower_bounds(n, k)
+    guaranteed = max(lower.values())
+    if as_json:
+        print_json({"mode": "distance", "n": n, "k": k, "upper": upper, "lower": lower,
+                    "best": {"d": best.d, "by": best.by}, "guaranteed_d": guaranteed})
+        return 0
+    t = Table(title=f"Upper bounds on d, binary linear [{n},{k}]")
+    t.add_column("bound")
+    t.add_column("d at most", justify="right")
+    t.add_column("")
+    tight = _mark(upper, min(upper.values()))
+    for name, value in upper.items():
+        t.add_row(_TITLES[name], str(value), "tightest" if tight[name] else "")
+    console.print(t)
+    console.print(f"Best upper bound: d <= {best.d}  (from {best.by})")
+    lo = Table(title="Existence bounds")
+    lo.add_column("bound")
+    lo.add_column("d at least", justify="right")
+    for name, value in lower.items():
+        lo.add_row(_TITLES[name], str(value))
+    console.print(lo)
+    console.print(f"Every binary linear [{n},{k}] code has d <= {best.d}; "
+                  f"codes with d >= {guaranteed} are guaranteed to exist.")
+    return 0
+
+
+def _run_nd(n: int, d: int, as_json: bool) -> int:
+    dims = B.dimension_bounds(n, d)  # validates n and d
+    best = B.max_dimension(n, d)
+    exist = B.existence_dimension(n, d)
+    if as_json:
+        print_json({"mode": "dimension", "n": n, "d": d, "upper": dims,
+                    "lower": {"gilbert_varshamov": _exist_k(n, d, "gilbert_varshamov"),
+                              "varshamov": _exist_k(n, d, "varshamov")},
+                    "best": {"k": best.k, "by": best.by},
+                    "guaranteed_k": {"k": exist.k, "by": exist.by}})
+        return 0
+    t = Table(title=f"Greatest dimension k for a binary linear code, n = {n}, d = {d}")
+    t.add_column("bound")
+    t.add_column("k at most", justify="right")
+    t.add_column("")
+    tight = _mark(dims, min(dims.values()))
+    for name, value in dims.items():
+        t.add_row(_TITLES[name], str(value), "tightest" if tight[name] else "")
+    console.print(t)
+    console.print(f"Best: k <= {best.k}  (k = {best.k + 1} ruled out by {best.by})"
+                  if best.k < n else f"Best: k <= {best.k}")
+    console.print(f"Every binary linear code of length {n} and distance >= {d} has "
+                  f"k <= {best.k}; k = {exist.k} is guaranteed to exist ({_TITLES[exist.by]}).")
+    return 0
+
+
+def _exist_k(n: int, d: int, name: str) -> int:
+    k = 0
+    while k < n and B.lower_bounds(n, k + 1)[name] >= d:
+        k += 1
+    return k
+
+
+def _run_kd(k: int, d: int, as_json: bool) -> int:
+    lengths = B.length_bounds(k, d)  # validates k and d
+    best = B.least_length(k, d)
+    exist = B.existence_length(k, d)
+    forced = B.ruling_out(best.n - 1, k, d) if best.n > 1 else []
+    if as_json:
+        print_json({"mode": "length", "k": k, "d": d, "upper": lengths,
+                    "lower": {"gilbert_varshamov": _exist_n(k, d, "gilbert_varshamov"),
+                              "varshamov": _exist_n(k, d, "varshamov")},
+                    "best": {"n": best.n, "by": best.by, "ruled_out_by": forced},
+                    "guaranteed_n": {"n": exist.n, "by": exist.by}})
+        return 0
+    t = Table(title=f"Least length n for a binary linear code, k = {k}, d = {d}")
+    t.add_column("bound")
+    t.add_column("n at least", justify="right")
+    t.add_column("")
+    top = max(lengths.values())
+    for name, value in lengths.items():
+        t.add_row(_TITLES[name], str(value), "tightest" if value == top else "")
+    console.print(t)
+    why = ", ".join(_TITLES.get(f, f) for f in forced) or best.by
+    console.print(f"No binary linear code with k = {k}, d = {d} is shorter than {best.n}; "
+                  f"length {best.n - 1} is ruled out by: {why}.")
+    console.print(f"Such a code is guaranteed to exist at length {exist.n} "
+                  f"({_TITLES[exist.by]}).")
+    return 0
+
+
+def _exist_n(k: int, d: int, name: str) -> int:
+    n = max(k, d)
+    while B.lower_bounds(n, k)[name] < d:
+        n += 1
+    return n
+
+
+def _run_table(args) -> int:
+    ns = parse_range("n", args.n)
+    ks = parse_range("k", args.k) if args.k is not None else range(1, ns[-1] + 1)
+    if ns[0] < 1:
+        raise ParameterError(f"Argument 'n' must be at least 1, not {ns[0]}.")
+    if ks[0] < 1:
+        raise ParameterError(f"Argument 'k' must be at least 1, not {ks[0]}.")
+    if ns[-1] > _TABLE_LIMIT:
+        raise ParameterError(f"Argument 'n' must be at most {_TABLE_LIMIT} with --table, "
+                             f"not {ns[-1]}.")
+    grid = {n: {k: B.best_upper(n, k).d for k in ks if k <= n} for n in ns}
+    if args.json:
+        print_json({"mode": "table", "n": [ns[0], ns[-1]], "k": [ks[0], ks[-1]],
+                    "best_d": {str(n): {str(k): v for k, v in row.items()}
+                               for n, row in grid.items()}})
+        return 0
+    t = Table(title="Best upper bound on d, binary linear [n, k] (rows n, columns k)")
+    t.add_column("n \\ k", justify="right")
+    for k in ks:
+        t.add_column(str(k), justify="right")
+    for n in ns:
+        t.add_row(str(n), *[str(grid[n][k]) if k <= n else "" for k in ks])
+    console.print(t, width=max(console.width, 8 + 6 * len(ks)))  # never elide cells
+    return 0

@@ -1,0 +1,268 @@
+"""``gf2codes verify FILE``: the true parameters of a code handed to you."""
+
+from __future__ import annotations
+
+import argparse
+import time
+from typing import Any
+
+from rich.markup import escape
+from rich.table import Table
+
+from ..code import Code
+from ..distance import DistanceResult, human_seconds, minimum_distance, quick_distance
+from ..exceptions import ParameterError, TooExpensiveError, check_int
+from ..formats import read_code, rows_to_strings
+from ..weights import (
+    DEFAULT_MAX_ENUMERATION,
+    dual_distance,
+    weight_distribution,
+    weight_enumeration_cost,
+)
+from ._common import ProgressBar, add_json_flag, console, err_console, print_json
+
+__all__ = ["register", "run", "report", "analyse"]
+
+_WEIGHT_RATE = 1.5e9  # codewords per second when counting weights (see scripts/)
+
+
+def register(sub: argparse._SubParsersAction) -> None:
+    p = sub.add_parser(
+        "verify",
+        help="prove n, k, d of a code, its weight distribution and properties",
+        description=(
+            "Read a generator matrix (or, with --parity-check, a parity-check matrix) from a "
+            "text file of 0/1 rows, a .npy file or a gf2codes JSON code record, and report its "
+            "[n, k, d] with d proved, the weight distribution, the dual distance, a "
+            "minimum-weight codeword and the code's properties."
+        ),
+    )
+    p.add_argument("file", help="matrix file: text rows of 0/1, .npy, or JSON code record")
+    p.add_argument("--parity-check", action="store_true",
+                   help="the file holds a parity-check matrix H, not a generator matrix")
+    p.add_argument("--target-d", type=int, metavar="D",
+                   help="only settle whether d >= D (stops as soon as it is known)")
+    p.add_argument("--time-limit", type=float, metavar="S",
+                   help="seconds for the distance computation; on expiry the proved "
+                        "interval is reported")
+    p.add_argument("--method", choices=("exact", "fast"), default="exact",
+                   help="exact: prove d (default); fast: a quick interval, the upper end by "
+                        "information-set decoding")
+    p.add_argument("--seed", type=int, default=0, help="seed for the randomised parts")
+    p.add_argument("--workers", type=int, metavar="N",
+                   help="threads for the exact enumeration (default: one per core)")
+    add_json_flag(p)
+
+
+def run(args: argparse.Namespace) -> int:
+    if args.time_limit is not None and not args.time_limit > 0:
+        raise ParameterError(f"Argument '--time-limit' must be positive, not {args.time_limit}.")
+    if args.target_d is not None:
+        check_int("--target-d", args.target_d, minimum=1)
+    if args.workers is not None:
+        check_int("--workers", args.workers, minimum=1)
+    record = read_code(args.file, parity_check=args.parity_check)
+    return report(record.code, as_json=args.json, time_limit=args.time_limit,
+                  method=args.method, target_d=args.target_d, source=args.file,
+                  seed=args.seed, workers=args.workers)
+
+
+def _distance(code: Code, method: str, time_limit: float | None, target_d: int | None,
+              seed: int, workers: int | None) -> DistanceResult:
+    if method == "fast":
+        return quick_distance(code, time_limit=time_limit or 2.0, seed=seed)
+    with ProgressBar("proving d") as bar:
+        try:
+            return minimum_distance(code, time_limit=time_limit, progress=bar,
+                                    target=target_d, seed=seed, workers=workers)
+        except TooExpensiveError as exc:
+            raise TooExpensiveError(
+                f"proving d of this [{code.n},{code.k}] code needs about {exc.work:.2g} "
+                f"codewords, roughly {human_seconds(exc.seconds)} on one core. Use "
+                "--time-limit S for the interval proved within S seconds, or --method fast "
+                "for a quick interval.", work=exc.work, seconds=exc.seconds,
+            ) from None
+
+
+def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact",
+            target_d: int | None = None, seed: int = 0,
+            workers: int | None = None) -> dict[str, Any]:
+    """Everything ``verify`` reports, as a JSON-ready dict."""
+    start = time.perf_counter()
+    res = _distance(code, method, time_limit, target_d, seed, workers)
+    notes: list[str] = []
+    # Weight distribution: only when it is affordable within what is left.
+    cost = weight_enumeration_cost(code)
+    left = None if time_limit is None else max(0.0, time_limit - (time.perf_counter() - start))
+    dist = None
+    if cost > DEFAULT_MAX_ENUMERATION or (left is not None and cost / _WEIGHT_RATE > left):
+        notes.append(
+            f"weight distribution not computed: it needs 2^{min(code.k, code.n - code.k)} "
+            "codewords" + ("" if left is None else " and the time limit is too short")
+        )
+    else:
+        with ProgressBar("counting weights") as bar:
+            dist = weight_distribution(code, progress=bar)
+    if dist is not None and not res.exact and target_d is None:
+        # The distribution is exact, so it proves d as well.
+        d_from_dist = next(i for i, a in enumerate(dist) if i and a)
+        notes.append("d proved from the exact weight distribution")
+        res = _exact_from_distribution(code, res, d_from_dist, seed)
+    dual_d = dual_distance(code, dist) if dist is not None else None
+    d = res.d
+    lower = res.lower
+    out: dict[str, Any] = {
+        "n": code.n,
+        "k": code.k,
+        "d": d,
+        "d_lower": res.lower,
+        "d_upper": res.upper,
+        "d_exact": res.exact,
+        "d_method": res.method,
+        "codewords_examined": res.codewords,
+        "seconds": round(time.perf_counter() - start, 4),
+        "stopped": res.stopped,
+        "corrects": (d - 1) // 2 if d is not None else (lower - 1) // 2,
+        "detects": d - 1 if d is not None else lower - 1,
+        "weight_distribution": dist,
+        "dual_distance": dual_d,
+        "witness": rows_to_strings(res.witness.reshape(1, -1))[0],
+        "witness_weight": int(res.upper),
+        "properties": code.properties(),
+        "dropped_rows": code.dropped_rows,
+        "notes": notes,
+    }
+    if target_d is not None:
+        out["target_d"] = target_d
+        out["meets_target"] = res.at_least(target_d)
+    out.update(_verdict(code, res))
+    return out
+
+
+def _exact_from_distribution(code: Code, res: DistanceResult, d: int, seed: int
+                             ) -> DistanceResult:
+    """Turn an interval into a proof using the exact weight distribution: find a
+    codeword of weight ``d`` (a target run stops at once when one exists)."""
+    if res.upper == d:
+        return DistanceResult(d, d, res.witness, True, res.method + "+weights",
+                              res.codewords, res.seconds, None)
+    r = minimum_distance(code, target=d + 1, max_work=None, seed=seed)
+    assert r.upper == d, "weight distribution and enumeration disagree"
+    return DistanceResult(d, d, r.witness, True, res.method + "+weights",
+                          res.codewords + r.codewords, res.seconds + r.seconds, None)
+
+
+def _verdict(code: Code, res: DistanceResult) -> dict[str, Any]:
+    """Best upper bound at (n, k), optimality, and least possible length for (k, d)."""
+    from .. import bounds
+
+    ub = bounds.best_upper(code.n, code.k)
+    optimal = None
+    if res.exact:
+        optimal = res.upper >= ub.d
+    elif res.lower >= ub.d:
+        optimal = True
+    d_for_length = res.d if res.exact else None
+    least = None
+    if d_for_length is not None:
+        ll = bounds.least_length(code.k, d_for_length)
+        least = {"n": ll.n, "by": ll.by}
+    return {"upper_bound": {"d": ub.d, "by": ub.by}, "optimal": optimal,
+            "least_length": least}
+
+
+def report(code: Code, *, as_json: bool = False, time_limit: float | None = None,
+           method: str = "exact", target_d: int | None = None, source: str | None = None,
+           seed: int = 0, workers: int | None = None) -> int:
+    """Verify ``code`` and print the report (table or JSON). Returns the exit status."""
+    info = analyse(code, time_limit=time_limit, method=method, target_d=target_d, seed=seed,
+                   workers=workers)
+    if as_json:
+        if source:
+            info = {"source": source, **info}
+        print_json(info)
+        return 0
+    _print_report(info, code, source)
+    return 0
+
+
+_METHOD_WORDS = {
+    "gray": "Gray-code enumeration of every codeword",
+    "brouwer-zimmermann": "Brouwer–Zimmermann enumeration",
+    "isd": "information-set decoding",
+}
+
+
+def _method_words(method: str) -> str:
+    return " + ".join(_METHOD_WORDS.get(part, part) for part in method.split("+"))
+
+
+def _fmt_distribution(dist: list[int]) -> str:
+    return "  ".join(f"{i}:{a}" for i, a in enumerate(dist) if a)
+
+
+def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
+    n, k = info["n"], info["k"]
+    if info["dropped_rows"]:
+        err_console.print(
+            f"note: {info['dropped_rows']} row(s) of the matrix were linearly dependent on the "
+            f"others and were dropped; the code has dimension k = {k}."
+        )
+    if info["d_exact"]:
+        title = f"[{n}, {k}, {info['d']}] binary linear code — d proved"
+    else:
+        title = f"[{n}, {k}] binary linear code — {info['d_lower']} ≤ d ≤ {info['d_upper']}"
+    if source:
+        title += f"  ({source})"
+    t = Table(title=escape(title), show_header=False, title_justify="left", box=None,
+              pad_edge=False)
+    t.add_column(style="bold")
+    t.add_column(overflow="fold")
+    t.add_row("length n", str(n))
+    t.add_row("dimension k", f"{k}   (rate {k / n:.4f}, {n - k} parity bits)")
+    if info["d_exact"]:
+        t.add_row("minimum distance d",
+                  f"{info['d']}   proved by {_method_words(info['d_method'])} "
+                  f"({info['codewords_examined']:,} codewords, {info['seconds']:.2f} s)")
+    else:
+        t.add_row("minimum distance d",
+                  f"[bold red]NOT PROVED[/]: {info['d_lower']} ≤ d ≤ {info['d_upper']} "
+                  f"({info['stopped']}; {info['codewords_examined']:,} codewords, "
+                  f"{info['seconds']:.2f} s)")
+    if "target_d" in info:
+        verdict = {True: "yes, proved", False: "no: a lighter codeword exists",
+                   None: "undecided within the time limit"}[info["meets_target"]]
+        t.add_row(f"d ≥ {info['target_d']}?", verdict)
+    exact = info["d_exact"]
+    t.add_row("corrects", f"{'' if exact else 'at least '}{info['corrects']} error(s)"
+              "   ⌊(d−1)/2⌋")
+    t.add_row("detects", f"{'' if exact else 'at least '}{info['detects']} error(s)   d−1")
+    dist = info["weight_distribution"]
+    t.add_row("weight distribution", _fmt_distribution(dist) if dist else "not computed")
+    dd = info["dual_distance"]
+    t.add_row("dual distance", "—" if dd is None else str(dd))
+    t.add_row("lightest codeword found", f"{info['witness']}   (weight {info['witness_weight']})")
+    props = [name.replace("_", "-") for name, v in info["properties"].items() if v]
+    t.add_row("properties", ", ".join(props) if props else "none of even, self-orthogonal, "
+              "dual-containing")
+    ub = info["upper_bound"]
+    if info["optimal"] is True:
+        verdict = escape(f"optimal: no [{n}, {k}] code has d > {ub['d']} ({ub['by']})")
+    elif info["optimal"] is False:
+        verdict = f"not known optimal: bounds allow d ≤ {ub['d']} ({ub['by']})"
+    else:
+        verdict = f"bounds allow d ≤ {ub['d']} ({ub['by']}); d not proved"
+    t.add_row("verdict", verdict)
+    if info["least_length"]:
+        ll = info["least_length"]
+        t.add_row("shortest possible", escape(f"no [n, {k}, {info['d']}] code has n < {ll['n']} "
+                  f"({ll['by']})"))
+    console.print(t)
+    for note in info["notes"]:
+        console.print(f"note: {note}")
+    if not exact:
+        console.print(
+            "[bold red]warning:[/] the minimum distance is not proved. Only "
+            f"d ≥ {info['d_lower']} is guaranteed; {info['d_upper']} is the weight of a codeword "
+            "found, an upper bound. Do not design to the upper value."
+        )

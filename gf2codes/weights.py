@@ -1,0 +1,165 @@
+"""Weight distributions, the MacWilliams identities and the dual distance.
+
+The weight distribution ``A_0, ..., A_n`` (``A_i`` = number of codewords of
+weight ``i``) is counted exactly by Gray-code enumeration of the smaller of the
+code and its dual; in the second case the MacWilliams identities give the code's
+distribution from the dual's, in exact integer arithmetic:
+
+    B_j = (1 / |C|) * sum_i A_i K_j(i),   K_j(i) = sum_s (-1)^s C(i, s) C(n - i, j - s)
+
+References
+----------
+.. [1] F. J. MacWilliams and N. J. A. Sloane, *The Theory of Error-Correcting
+   Codes*, North-Holland, 1977, ch. 5 (the MacWilliams identities, Theorem 1 and
+   section 2; Krawtchouk polynomials, section 7).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from functools import lru_cache
+
+import numpy as np
+
+from . import _kernels
+from .code import Code
+from .distance import ProgressCallback, _gray_layout
+from .exceptions import ParameterError, TooExpensiveError
+
+__all__ = [
+    "krawtchouk",
+    "macwilliams_transform",
+    "weight_distribution",
+    "weight_enumeration_cost",
+    "dual_distance",
+    "minimum_weight_from_distribution",
+    "DEFAULT_MAX_ENUMERATION",
+]
+
+#: :func:`weight_distribution` refuses to enumerate more codewords than this
+#: (about half a minute on one core) unless told otherwise.
+DEFAULT_MAX_ENUMERATION = 1 << 36
+
+
+@lru_cache(maxsize=65536)
+def krawtchouk(j: int, i: int, n: int) -> int:
+    """The binary Krawtchouk polynomial ``K_j(i)`` of length ``n`` (exact integer).
+
+    >>> [krawtchouk(1, i, 3) for i in range(4)]
+    [3, 1, -1, -3]
+    """
+    return sum((-1) ** s * math.comb(i, s) * math.comb(n - i, j - s) for s in range(j + 1))
+
+
+def macwilliams_transform(distribution: Sequence[int], n: int | None = None) -> list[int]:
+    """Weight distribution of the dual code from that of the code.
+
+    Parameters
+    ----------
+    distribution : sequence of int
+        ``A_0..A_n`` of a linear code (``A_0 = 1``, total a power of two).
+    n : int, optional
+        Length; defaults to ``len(distribution) - 1``.
+
+    Raises
+    ------
+    ParameterError
+        If the input cannot be the distribution of a linear code (the transform
+        is then not integral or has negative entries).
+
+    Examples
+    --------
+    The [7,4] Hamming code and its dual, the [7,3] simplex code (MacWilliams &
+    Sloane ch. 1 section 3: the simplex code has 7 words of weight 4):
+
+    >>> macwilliams_transform([1, 0, 0, 7, 7, 0, 0, 1])
+    [1, 0, 0, 0, 7, 0, 0, 0]
+    """
+    A = [int(a) for a in distribution]
+    n = len(A) - 1 if n is None else n
+    if len(A) != n + 1:
+        raise ParameterError(f"Argument 'distribution' must have n + 1 = {n + 1} entries, "
+                             f"not {len(A)}.")
+    size = sum(A)
+    if size <= 0 or size & (size - 1):
+        raise ParameterError(f"Argument 'distribution' must sum to a power of two, not {size}.")
+    out = []
+    for j in range(n + 1):
+        s = sum(A[i] * krawtchouk(j, i, n) for i in range(n + 1) if A[i])
+        if s % size or s < 0:
+            raise ParameterError(
+                "Argument 'distribution' is not the weight distribution of a linear code: "
+                f"the MacWilliams transform gives {s}/{size} at weight {j}."
+            )
+        out.append(s // size)
+    return out
+
+
+def weight_enumeration_cost(code: Code) -> int:
+    """Codewords :func:`weight_distribution` enumerates: ``2^min(k, n - k)``."""
+    return 1 << min(code.k, code.n - code.k)
+
+
+def _count(code: Code, progress: ProgressCallback | None) -> list[int]:
+    rows = np.array(code.packed_generator, dtype=np.uint64, order="C")
+    OT, TT, _ = _gray_layout(rows)
+    outer = 1 << OT.shape[1]
+    per = max(1, (1 << 24) // TT.shape[1])
+    hist = np.zeros(code.n + 1, dtype=np.int64)
+    for g in range(0, outer, per):
+        stop = min(outer, g + per)
+        hist += _kernels.gray_weight_histogram(OT, TT, g, stop, code.n)
+        if progress is not None:
+            progress(stop * TT.shape[1], outer * TT.shape[1], {})
+    return [int(x) for x in hist]
+
+
+def weight_distribution(code: Code, *, progress: ProgressCallback | None = None,
+                        max_codewords: int | None = DEFAULT_MAX_ENUMERATION) -> list[int]:
+    """Exact weight distribution ``[A_0, ..., A_n]`` of ``code``.
+
+    Enumerates the code when ``k <= n - k``, else the dual code followed by the
+    MacWilliams transform.
+
+    Raises
+    ------
+    TooExpensiveError
+        If ``2^min(k, n-k)`` exceeds ``max_codewords``.
+
+    Examples
+    --------
+    >>> from gf2codes.code import Code
+    >>> weight_distribution(Code([[1, 1, 0], [0, 1, 1]]))
+    [1, 0, 3, 0]
+    """
+    cost = weight_enumeration_cost(code)
+    if max_codewords is not None and cost > max_codewords:
+        raise TooExpensiveError(
+            f"the weight distribution of this [{code.n},{code.k}] code needs 2^"
+            f"{min(code.k, code.n - code.k)} = {cost:.3g} codewords, more than the limit of "
+            f"{max_codewords:.3g}."
+        )
+    if code.k <= code.n - code.k or code.k == code.n:
+        return _count(code, progress)
+    return macwilliams_transform(_count(code.dual(), progress), code.n)
+
+
+def minimum_weight_from_distribution(distribution: Sequence[int]) -> int | None:
+    """Least positive weight with a nonzero count (None for the zero code)."""
+    return next((i for i, a in enumerate(distribution) if i and a), None)
+
+
+def dual_distance(code: Code, distribution: Sequence[int] | None = None) -> int | None:
+    """Minimum distance of the dual code (None when the dual is the zero code, k = n).
+
+    With the code's weight distribution given, it comes from the MacWilliams
+    transform; otherwise by proving the dual's distance.
+    """
+    if code.k == code.n:
+        return None
+    if distribution is not None:
+        return minimum_weight_from_distribution(macwilliams_transform(distribution, code.n))
+    from .distance import minimum_distance
+
+    return minimum_distance(code.dual(), max_work=None).d

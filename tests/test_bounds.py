@@ -1,0 +1,373 @@
+"""Tests of gf2codes.bounds and the ``gf2codes bounds`` command.
+
+Every reference value carries its source in a comment. "MS77" is MacWilliams & Sloane,
+The Theory of Error-Correcting Codes (1977); "from memory" marks values recalled from the
+published tables (MS77 appendix A, Brouwer's online table) rather than re-read.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from gf2codes import bounds as B
+from gf2codes.exceptions import ParameterError
+
+REPO = Path(__file__).resolve().parents[1]
+
+
+# ------------------------------------------------------------ brute force for small n
+
+
+def _true_distance(n: int, k: int) -> int:
+    """D(n, k) by exhaustive search over systematic generators [I | A].
+
+    Every binary linear code is permutation-equivalent to one with a systematic generator
+    matrix, and permutations keep the minimum distance, so the maximum over all A is D(n, k).
+    """
+    r = n - k
+    best = 1
+    for bits in range(1 << (k * r)):
+        rows = [(1 << (n - 1 - i)) | ((bits >> (i * r)) & ((1 << r) - 1)) for i in range(k)]
+        d = n
+        for mask in range(1, 1 << k):
+            w = 0
+            for i in range(k):
+                if mask >> i & 1:
+                    w ^= rows[i]
+            d = min(d, bin(w).count("1"))
+            if d <= best:
+                break
+        best = max(best, d)
+    return best
+
+
+SMALL = [(n, k) for n in range(1, 9) for k in range(1, n + 1) if k * (n - k) <= 16]
+TRUE_D = {nk: _true_distance(*nk) for nk in SMALL}  # computed by brute force in this test
+
+
+def test_brute_force_sanity():
+    # computed by brute force in this test; cross-checked with known codes:
+    assert TRUE_D[(7, 4)] == 3  # Hamming [7,4,3]
+    assert TRUE_D[(8, 4)] == 4  # extended Hamming [8,4,4]
+    assert TRUE_D[(6, 3)] == 3  # shortened Hamming [6,3,3], optimal (MS77 app. A, from memory)
+
+
+@pytest.mark.parametrize("nk", SMALL)
+def test_bounds_bracket_the_true_distance(nk):
+    n, k = nk
+    d = TRUE_D[nk]  # computed by brute force in this test
+    assert B.best_upper(n, k).d >= d
+    for name, value in B.upper_bounds(n, k).items():
+        assert value >= d, name
+    for name, value in B.lower_bounds(n, k).items():
+        assert value <= d, name
+
+
+# ---------------------------------------------------------------------- perfect codes
+
+
+@pytest.mark.parametrize("m", range(2, 8))
+def test_hamming_codes_meet_sphere_packing_with_equality(m):
+    # Hamming code [2^m - 1, 2^m - 1 - m, 3] is perfect (MS77 ch. 1 §7).
+    n, k = 2**m - 1, 2**m - 1 - m
+    assert (1 << k) * (1 + n) == 1 << n
+    assert B.hamming_bound(n, k) == 3
+    assert B.best_upper(n, k).d == 3
+
+
+def test_golay_meets_sphere_packing_with_equality():
+    # binary Golay code [23,12,7] is perfect (MS77 ch. 2 §6 / ch. 20).
+    assert (1 << 12) * sum(math.comb(23, i) for i in range(4)) == 1 << 23
+    assert B.hamming_bound(23, 12) == 7
+    assert B.lp_bound(23, 12) == 7
+    assert B.best_upper(23, 12) == B.UpperBound(7, "hamming")
+
+
+# --------------------------------------------------------------------------- Griesmer
+
+
+@pytest.mark.parametrize("m", range(2, 9))
+def test_simplex_meets_griesmer(m):
+    # simplex [2^m - 1, m, 2^(m-1)] meets the Griesmer bound (MS77 ch. 17 §6).
+    n, k, d = 2**m - 1, m, 2 ** (m - 1)
+    assert sum(-(-d // 2**i) for i in range(k)) == n
+    assert B.griesmer_bound(n, k) == d
+    assert B.best_upper(n, k).d == d
+
+
+@pytest.mark.parametrize("m", range(2, 9))
+def test_first_order_reed_muller_meets_griesmer(m):
+    # RM(1, m) = [2^m, m + 1, 2^(m-1)] meets the Griesmer bound (MS77 ch. 13, ch. 17 §6).
+    n, k, d = 2**m, m + 1, 2 ** (m - 1)
+    assert sum(-(-d // 2**i) for i in range(k)) == n
+    assert B.griesmer_bound(n, k) == d
+    assert B.best_upper(n, k).d == d
+
+
+# --------------------------------------------------------------------------- LP bound
+
+KNOWN_CODES = [
+    (24, 12, 8),  # extended Golay (MS77 ch. 2 §6)
+    (23, 12, 7),  # Golay
+    (7, 4, 3),  # Hamming
+    (8, 4, 4),  # extended Hamming = RM(1,3)
+    (16, 5, 8),  # RM(1,4)
+    (16, 11, 4),  # RM(2,4) = extended Hamming
+    (32, 16, 8),  # RM(2,5) (MS77 ch. 13)
+    (32, 6, 16),  # RM(1,5)
+    (15, 7, 5),  # BCH (MS77 ch. 9)
+    (15, 5, 7),  # BCH
+    (31, 16, 7),  # BCH / QR (MS77 ch. 9, ch. 16)
+    (31, 21, 5),  # BCH
+    (63, 51, 5),  # BCH
+    (18, 9, 6),  # extended QR [18,9,6] (MS77 ch. 16)
+    (72, 64, 4),  # shortened extended Hamming [128,120,4] -> [72,64,4]
+]
+
+
+@pytest.mark.parametrize("n,k,d", KNOWN_CODES)
+def test_no_bound_below_a_known_code(n, k, d):
+    ub = B.upper_bounds(n, k)
+    assert all(value >= d for value in ub.values()), ub
+    assert B.best_upper(n, k).d >= d
+
+
+@pytest.mark.parametrize("n,k,expected", [
+    (24, 12, 8),  # d(24,12) = 8, extended Golay is optimal (MS77 app. A, from memory)
+    (23, 12, 7),  # d(23,12) = 7 (MS77 app. A, from memory)
+    (16, 5, 8),  # d(16,5) = 8, RM(1,4) (MS77 app. A, from memory)
+    (72, 64, 4),  # Hamming bound on [71,64] gives 3, so 4 by puncturing; [72,64,4] exists
+    (71, 64, 3),  # sphere packing: 1 + 70 > 2^6 rules out [71,64,4] via the punctured code
+    (8, 4, 4),  # extended Hamming is optimal (brute force above)
+    (32, 6, 16),  # RM(1,5) meets Griesmer
+])
+def test_best_upper_equals_known_optimum(n, k, expected):
+    assert B.best_upper(n, k).d == expected
+
+
+def test_best_upper_15_7_is_not_tight():
+    # d(15,7) = 5 for linear codes (BCH [15,7,5] optimal; MS77 app. A, from memory), but a
+    # nonlinear (15, 128, 6) code exists (shortened Nordstrom-Robinson, MS77 ch. 2 §8), so
+    # no bound that also holds for nonlinear codes (LP, Hamming, Elias) can reach 5, and
+    # Griesmer allows 6 (6+3+2+1+1+1+1 = 15). The value 6 is valid, just not tight.
+    assert B.best_upper(15, 7).d == 6
+    assert B.lp_bound(15, 7) == 6
+
+
+def test_lp_and_hamming_beat_griesmer_at_31_16():
+    # checked by hand: d = 9 needs V(31, 4) = 36457 <= 2^15 = 32768, false (Hamming rules
+    # it out); d = 8 needs, for the punctured [30,16,7], V(30, 3) = 4526 <= 2^14, true.
+    # Griesmer allows 9: 9 + 5 + 3 + 2 + 1 * 12 = 31.
+    ub = B.upper_bounds(31, 16)
+    assert ub["lp"] == 8 and ub["griesmer"] == 9
+
+
+def test_krawtchouk_exact():
+    # definition K_j(i) = sum_s (-1)^s C(i, s) C(n-i, j-s) (MS77 ch. 5 §7)
+    for n in (1, 2, 7, 24, 25):
+        K = B._krawtchouk(n)
+        for j in range(n // 2 + 1):
+            for i in range(0, n + 1, 2):
+                ref = sum((-1) ** s * math.comb(i, s) * math.comb(n - i, j - s)
+                          for s in range(j + 1))
+                assert K[j][i] == ref
+
+
+# ------------------------------------------------------------ lengths and dimensions
+
+
+@pytest.mark.parametrize("k,d,n,why", [
+    (12, 8, 24, "hamming"),  # [23,12,8] ruled out by sphere packing; Golay [24,12,8] exists
+    (64, 4, 72, "hamming"),  # [71,64,4]: punctured [70,64,3] needs 1 + 70 <= 64, false
+    (5, 8, 16, "griesmer"),  # Griesmer: 8 + 4 + 2 + 1 + 1 = 16; RM(1,4) attains it
+    (4, 3, 7, "hamming"),  # Hamming [7,4,3]
+])
+def test_least_length(k, d, n, why):
+    lb = B.least_length(k, d)
+    assert lb.n == n
+    assert why in B.ruling_out(n - 1, k, d)
+    assert B.best_upper(n - 1, k).d < d
+
+
+def test_least_length_12_8_forced_by():
+    assert B.ruling_out(23, 12, 8) == ["hamming", "lp"]  # computed; Griesmer allows 23
+
+
+def test_max_dimension():
+    assert B.max_dimension(24, 8).k == 12  # Golay (MS77 app. A, from memory)
+    assert B.max_dimension(23, 7).k == 12  # Golay
+    assert B.max_dimension(7, 3).k == 4  # Hamming
+    assert B.max_dimension(10, 10).k == 1  # repetition code only
+    assert B.max_dimension(72, 4).k == 64  # see test_least_length
+
+
+def test_existence_bounds_values():
+    # computed by hand in this test: V(23, 3) = 2048 < 2^12 = 2^(24-12) -> Varshamov gives 5
+    assert B.varshamov(24, 12) == 5
+    # V(24, 3) = 2325 < 2^13 and V(24, 4) = 12951 >= 2^13 -> Gilbert-Varshamov gives 4
+    assert B.gilbert_varshamov(24, 12) == 4
+    ex = B.existence_length(12, 8)
+    assert ex.n >= 24 and B.lower_bounds(ex.n, 12)[ex.by] >= 8
+    assert B.lower_bounds(ex.n - 1, 12)["varshamov"] < 8
+    assert B.existence_dimension(24, 8).k <= B.max_dimension(24, 8).k
+
+
+# ------------------------------------------------------------------------ Plotkin range
+
+
+def test_plotkin_range_of_validity():
+    for d in range(1, 30):
+        top = 2 * d if d % 2 == 0 else 2 * d + 1
+        for n in range(1, 70):
+            size = B._plotkin_size(n, d)
+            assert (size is None) == (n < d or n > top), (n, d)
+    # A(8,4) = 16, A(11,6) = 12, A(16,8) = 32: Plotkin is attained by Hadamard-type codes
+    # (MS77 ch. 2 §3, table of A(n,d) in MS77 app. A; from memory)
+    assert B._plotkin_size(8, 4) == 16
+    assert B._plotkin_size(11, 6) == 12
+    assert B._plotkin_size(16, 8) == 32
+    # beyond 2d the bound exists through shortening and stays valid:
+    assert B.plotkin_bound(32, 6) >= 16  # RM(1,5)
+    assert B.plotkin_bound(72, 64) >= 4
+
+
+# ------------------------------------------------------------------------- properties
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.integers(1, 59).flatmap(lambda n: st.tuples(st.just(n), st.integers(1, n))))
+def test_properties(nk):
+    n, k = nk
+    ub = B.upper_bounds(n, k)
+    lb = B.lower_bounds(n, k)
+    best = B.best_upper(n, k)
+    assert min(ub.values()) >= max(lb.values())
+    assert all(best.d <= v for v in ub.values())
+    assert best.d >= max(lb.values())
+    if k < n:
+        assert best.d >= B.best_upper(n, k + 1).d
+    assert B.best_upper(n + 1, k).d >= best.d
+
+
+def test_table_is_monotone_up_to_40():
+    for n in range(1, 41):
+        for k in range(1, n + 1):
+            d = B.best_upper(n, k).d
+            if k < n:
+                assert d >= B.best_upper(n, k + 1).d
+            assert B.best_upper(n + 1, k).d >= d
+
+
+# ------------------------------------------------------------------------- validation
+
+
+@pytest.mark.parametrize("func", [B.singleton_bound, B.hamming_bound, B.plotkin_bound,
+                                  B.griesmer_bound, B.elias_bound, B.lp_bound, B.best_upper,
+                                  B.upper_bounds, B.lower_bounds, B.gilbert_varshamov,
+                                  B.varshamov])
+def test_bad_nk(func):
+    with pytest.raises(ParameterError, match=r"Argument 'k' must be at most 5, not 7\."):
+        func(5, 7)
+    with pytest.raises(ParameterError, match=r"Argument 'k' must be at least 1, not 0\."):
+        func(5, 0)
+    with pytest.raises(ParameterError, match=r"Argument 'n' must be at least 1, not 0\."):
+        func(0, 1)
+    with pytest.raises(ParameterError, match=r"Argument 'n' must be an integer, not 5\.0\."):
+        func(5.0, 1)
+    with pytest.raises(ParameterError, match=r"Argument 'k' must be an integer, not True\."):
+        func(5, True)
+    with pytest.raises(ParameterError, match=r"Argument 'n' must be an integer, not '5'\."):
+        func("5", 1)
+
+
+def test_bad_d():
+    with pytest.raises(ParameterError, match=r"Argument 'd' must be at least 1, not 0\."):
+        B.least_length(3, 0)
+    with pytest.raises(ParameterError, match=r"Argument 'd' must be at most 5, not 6\."):
+        B.max_dimension(5, 6)
+    with pytest.raises(ParameterError, match=r"Argument 'd' must be at most 5, not 6\."):
+        B.existence_dimension(5, 6)
+    with pytest.raises(ParameterError, match=r"Argument 'k' must be an integer, not 1\.5\."):
+        B.existence_length(1.5, 2)
+
+
+def test_public_surface():
+    for name in B.__all__:
+        assert hasattr(B, name), name
+    assert set(B.upper_bounds(10, 3)) == {"singleton", "hamming", "plotkin", "griesmer",
+                                          "elias", "lp"}
+    assert set(B.lower_bounds(10, 3)) == {"gilbert_varshamov", "varshamov"}
+
+
+# -------------------------------------------------------------------------------- CLI
+
+
+def test_cli_length_json(capsys):
+    from gf2codes.cli import main
+
+    assert main(["bounds", "--k", "12", "--d", "8", "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert out["best"]["n"] == 24  # extended Golay [24,12,8]; [23,12,8] impossible
+    assert out["best"]["ruled_out_by"] == ["hamming", "lp"]
+    assert set(out["upper"]) == {"singleton", "hamming", "plotkin", "griesmer", "elias", "lp"}
+    assert set(out["lower"]) == {"gilbert_varshamov", "varshamov"}
+    assert out["k"] == 12 and out["d"] == 8
+
+
+def test_cli_distance_json_and_text(capsys):
+    from gf2codes.cli import main
+
+    assert main(["bounds", "--n", "24", "--k", "12", "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert out["best"]["d"] == 8 and out["upper"]["lp"] == 8
+    assert main(["bounds", "--n", "24", "--k", "12"]) == 0
+    text = capsys.readouterr().out
+    assert "d <= 8" in text
+    assert main(["bounds", "--n", "24", "--d", "8", "--json"]) == 0
+    assert json.loads(capsys.readouterr().out)["best"]["k"] == 12
+
+
+def test_cli_table(capsys):
+    from gf2codes.cli import main
+
+    assert main(["bounds", "--table", "--n", "1-12", "--k", "1-6", "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert out["best_d"]["7"]["4"] == 3 and out["best_d"]["8"]["4"] == 4
+    assert "5" not in out["best_d"]["4"]  # k <= n only
+    assert main(["bounds", "--table", "--n", "1-12"]) == 0
+    assert "rows n" in capsys.readouterr().out
+
+
+@pytest.mark.parametrize("argv,msg", [
+    (["--n", "5", "--k", "7"], "Argument 'k' must be at most 5, not 7."),
+    (["--n", "5", "--d", "6"], "Argument 'd' must be at most 5, not 6."),
+    (["--n", "x", "--k", "2"], "Argument 'n' must be an integer, not 'x'."),
+    (["--n", "5"], "exactly two of"),
+    (["--table", "--d", "3", "--n", "1-4"], "must not be given with --table"),
+])
+def test_cli_bad_input(capsys, argv, msg):
+    from gf2codes.cli import main
+
+    assert main(["bounds", *argv]) == 2
+    err = capsys.readouterr().err
+    assert msg in err and err.count("\n") == 1
+
+
+def test_cli_subprocess_bad_input_exits_2():
+    env = dict(os.environ, PYTHONPATH=str(REPO))
+    proc = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--n", "5", "--k", "9"],
+                          capture_output=True, text=True, env=env, timeout=120)
+    assert proc.returncode == 2
+    lines = proc.stderr.strip().splitlines()
+    assert lines == ["gf2codes bounds: error: Argument 'k' must be at most 5, not 9."]
+    assert "Traceback" not in proc.stderr
+

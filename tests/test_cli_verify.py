@@ -1,0 +1,131 @@
+"""`gf2codes verify` end to end: called in-process and through a real subprocess."""
+
+from __future__ import annotations
+
+import json
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from gf2codes.cli import main
+from gf2codes.formats import write_code
+
+ROOT = Path(__file__).resolve().parents[1]
+DEMO = ROOT / "examples" / "orchard-valve-link.txt"
+
+
+def _run(*args: str) -> subprocess.CompletedProcess:
+    env = dict(os.environ, PYTHONPATH=str(ROOT))
+    return subprocess.run([sys.executable, "-m", "gf2codes", *args], capture_output=True,
+                          text=True, env=env, timeout=300)
+
+
+def _json(capsys, *args: str) -> dict:
+    assert main(["verify", *args, "--json"]) == 0
+    return json.loads(capsys.readouterr().out)
+
+
+def test_json_keys_and_values_for_extended_golay(tmp_path, capsys, golay24):
+    f = tmp_path / "g24.txt"
+    write_code(golay24, f)
+    out = _json(capsys, str(f))
+    # [24,12,8], weight distribution 1, 759, 2576, 759, 1: MacWilliams & Sloane, ch. 2 §6.
+    assert (out["n"], out["k"], out["d"], out["d_lower"], out["d_upper"]) == (24, 12, 8, 8, 8)
+    assert out["d_exact"] is True
+    wd = out["weight_distribution"]
+    assert len(wd) == 25 and [wd[i] for i in (0, 8, 12, 16, 24)] == [1, 759, 2576, 759, 1]
+    assert len(out["witness"]) == 24 and out["witness"].count("1") == 8
+    assert out["corrects"] == 3 and out["detects"] == 7 and out["dual_distance"] == 8
+    assert out["properties"]["self_dual"] and out["properties"]["doubly_even"]
+    # The extended Golay code is optimal: no [24,12,9] binary linear code exists.
+    assert out["optimal"] is True and out["upper_bound"]["d"] == 8
+    assert out["least_length"]["n"] == 24
+
+
+def test_demo_file_and_table_output(capsys):
+    assert main(["verify", str(DEMO)]) == 0
+    out = capsys.readouterr().out
+    assert "[22, 16, 4]" in out and "d proved" in out and "4:255" in out
+
+
+def test_parity_check_input(tmp_path, capsys, hamming74):
+    f = tmp_path / "H.txt"
+    f.write_text("\n".join("".join(map(str, r)) for r in hamming74.H) + "\n")
+    out = _json(capsys, str(f), "--parity-check")
+    assert (out["n"], out["k"], out["d"]) == (7, 4, 3)
+    assert out["weight_distribution"] == [1, 0, 0, 7, 7, 0, 0, 1]
+
+
+def test_dependent_rows_are_reported(tmp_path, capsys, hamming74):
+    f = tmp_path / "dup.txt"
+    write_code(hamming74, f)
+    f.write_text(f.read_text() + "1000011\n")
+    assert main(["verify", str(f)]) == 0
+    captured = capsys.readouterr()
+    assert "1 row(s)" in captured.err and "dropped" in captured.err
+
+
+def test_target_and_time_limit(tmp_path, capsys):
+    import galois
+
+    C = np.asarray(galois.BCH(127, 64).G).astype(np.uint8)
+    f = tmp_path / "bch.npy"
+    np.save(f, C)
+    out = _json(capsys, str(f), "--time-limit", "0.5")
+    # BCH [127,64] has d = 21 (MacWilliams & Sloane, appendix A): not provable in 0.5 s.
+    assert out["d"] is None and out["d_exact"] is False
+    assert out["d_lower"] <= 21 <= out["d_upper"]
+    assert out["weight_distribution"] is None
+    out = _json(capsys, str(f), "--target-d", "5")
+    assert out["meets_target"] is True
+    assert main(["verify", str(f), "--time-limit", "0.5"]) == 0
+    assert "NOT PROVED" in capsys.readouterr().out
+
+
+def test_fast_method(tmp_path, capsys, golay24):
+    f = tmp_path / "g.json"
+    write_code(golay24, f)
+    out = _json(capsys, str(f), "--method", "fast")
+    assert out["d_lower"] <= 8 <= out["d_upper"]
+
+
+@pytest.mark.parametrize("content, message", [
+    ("101\n10\n", "line 2: this row has 2 entries"),
+    ("1a1\n", "line 1, column 2"),
+    ("", "the file is empty"),
+    ("000\n000\n", "k = 0"),
+])
+def test_bad_input_is_one_line_without_traceback(tmp_path, content, message):
+    f = tmp_path / "bad.txt"
+    f.write_text(content)
+    r = _run("verify", str(f))
+    assert r.returncode == 2
+    assert message in r.stderr and "Traceback" not in r.stderr
+    assert len(r.stderr.strip().splitlines()) == 1
+
+
+def test_too_expensive_points_to_the_options(tmp_path):
+    import galois
+
+    f = tmp_path / "big.npy"
+    np.save(f, np.asarray(galois.BCH(127, 71).G).astype(np.uint8))
+    r = _run("verify", str(f))
+    assert r.returncode == 2 and "Traceback" not in r.stderr
+    assert "--time-limit" in r.stderr and "--method fast" in r.stderr and "codewords" in r.stderr
+
+
+def test_bad_options(tmp_path):
+    r = _run("verify", str(DEMO), "--time-limit", "0")
+    assert r.returncode == 2 and "must be positive" in r.stderr
+    r = _run("verify", str(tmp_path / "missing.txt"))
+    assert r.returncode == 2 and "no such file" in r.stderr
+
+
+def test_module_entry_point_runs_the_demo():
+    r = _run("verify", str(DEMO), "--json")
+    assert r.returncode == 0, r.stderr
+    assert json.loads(r.stdout)["d"] == 4
