@@ -8,7 +8,8 @@ import pytest
 
 import gf2codes
 
-MODULES = ["code", "linalg", "distance", "weights", "bounds", "formats", "exceptions"]
+MODULES = ["code", "linalg", "distance", "weights", "bounds", "families", "derive", "formats",
+           "exceptions"]
 
 
 @pytest.mark.parametrize("name", MODULES)
@@ -31,9 +32,20 @@ def test_exceptions_derive_from_builtins():
 
     assert issubclass(ParseError, ValueError) and issubclass(ParameterError, ValueError)
     assert issubclass(CatalogError, RuntimeError) and issubclass(TooExpensiveError, RuntimeError)
-    for cls in (ParseError, ParameterError, CatalogError, TooExpensiveError):
+    from gf2codes.exceptions import ClaimError
+
+    for cls in (ParseError, ParameterError, CatalogError, TooExpensiveError, ClaimError):
         assert issubclass(cls, Gf2CodesError) and cls.__doc__
 
 
 def test_version():
     assert gf2codes.__version__.count(".") == 2
+
+
+def test_no_name_is_exported_twice():
+    seen = {}
+    for name in MODULES:
+        module = importlib.import_module(f"gf2codes.{name}")
+        for attr in module.__all__:
+            assert attr not in seen, f"{attr} is exported by {seen.get(attr)} and {name}"
+            seen[attr] = name

@@ -1,0 +1,980 @@
+"""Named constructions of binary linear codes.
+
+Every builder returns a :class:`~gf2codes.code.Code` with a ``name``, a one-step
+``recipe`` (``[{"family": "bch", "n": 63, "designed": 11, "b": 1}]``; the keys
+other than ``family`` are the builder's keyword arguments, so
+:func:`gf2codes.derive.rebuild` can run it again) and ``d_lower`` / ``d_upper``
+set only to what the construction proves. A designed distance is a lower bound,
+never a claim that d equals it.
+
+Cyclic codes use the textbook correspondence: the word ``(c_0, ..., c_{n-1})`` is
+the polynomial ``c_0 + c_1 x + ... + c_{n-1} x^{n-1}``, and the generator matrix
+has the rows ``x^i g(x)``, ``i = 0 .. k-1``.
+
+Polynomials (for :func:`cyclic`) are given as a ``galois.Poly`` over GF(2) or as
+text in one of three notations:
+
+* ``"x^11+x^10+x^6+x^5+x^4+x^2+1"`` (also ``x**3``; spaces ignored; ``-`` is the
+  same as ``+`` over GF(2));
+* ``"0o5343"``: octal, the notation of the published tables of cyclic codes,
+  most significant bit = highest degree (``0o5343`` is
+  ``x^11+x^9+x^7+x^6+x^5+x+1``). The ``0o`` prefix is required so that an octal
+  string is never mistaken for a binary or decimal number;
+* ``"0b1011"``: binary, highest degree first (``x^3+x+1``).
+
+References
+----------
+.. [1] F. J. MacWilliams and N. J. A. Sloane, *The Theory of Error-Correcting
+   Codes*, North-Holland, 1977: ch. 1 (repetition, even-weight, Hamming, simplex
+   codes), ch. 7 and 9 (cyclic and BCH codes, the BCH bound), ch. 13 (Reed-Muller
+   codes), ch. 16 (quadratic-residue codes, their idempotents and the square-root
+   bound), ch. 16 section 6 and ch. 20 (the Golay codes).
+.. [2] W. C. Huffman and V. Pless, *Fundamentals of Error-Correcting Codes*,
+   Cambridge University Press, 2003: ch. 1 (Hamming, Reed-Muller, Golay),
+   ch. 4 and 5 (cyclic and BCH codes), section 6.6 (quadratic-residue codes,
+   the square-root bound, odd minimum weight).
+.. [3] M. J. E. Golay, "Notes on digital coding", *Proc. IRE* 37 (1949) 657.
+.. [4] I. S. Reed, "A class of multiple-error-correcting codes and the decoding
+   scheme", *IRE Trans. Inform. Theory* 4 (1954) 38-49; D. E. Muller,
+   "Application of Boolean algebra to switching circuit design and to error
+   detection", *IRE Trans. Electron. Comput.* 3 (1954) 6-12.
+.. [5] R. C. Bose and D. K. Ray-Chaudhuri, "On a class of error correcting binary
+   group codes", *Inform. Control* 3 (1960) 68-79; A. Hocquenghem, "Codes
+   correcteurs d'erreurs", *Chiffres* 2 (1959) 147-156.
+.. [6] J. H. Conway and N. J. A. Sloane, *Sphere Packings, Lattices and Groups*,
+   Springer, 1988, ch. 3 section 2 (quadratic-residue and Golay codes).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, field
+from itertools import combinations
+from typing import Any
+
+import galois
+import numpy as np
+import numpy.typing as npt
+
+from .code import Code
+from .exceptions import ParameterError, ParseError, check_int
+
+__all__ = [
+    "MAX_LENGTH",
+    "repetition",
+    "even_weight",
+    "hamming",
+    "extended_hamming",
+    "simplex",
+    "reed_muller",
+    "golay",
+    "extended_golay",
+    "bch",
+    "quadratic_residue",
+    "cyclic",
+    "cyclic_codes",
+    "CyclicCode",
+    "quasi_cyclic",
+    "double_circulant",
+    "from_rows",
+    "parse_polynomial",
+    "GOLAY_POLYNOMIAL",
+    "PRIMITIVE_POLYNOMIALS",
+    "polynomial_to_octal",
+    "bch_bound",
+    "FamilyArgument",
+    "Family",
+    "FAMILIES",
+]
+
+#: Longest code the families build (a generator matrix of at most about 2^24 bits).
+MAX_LENGTH = 4096
+
+#: Largest extension degree used to find the roots of a cyclic code for the BCH bound.
+_MAX_ROOT_FIELD_DEGREE = 16
+
+GF2 = galois.GF(2)
+
+
+# ----------------------------------------------------------------- helpers
+def _bits_string(row: np.ndarray) -> str:
+    return "".join("1" if b else "0" for b in np.asarray(row).tolist())
+
+
+def _parse_bits(name: str, value: Any) -> np.ndarray:
+    """A 0/1 vector from a string (``|``, spaces, commas ignored) or a sequence."""
+    if isinstance(value, str):
+        text = re.sub(r"[\s|,_]", "", value)
+        if not text or set(text) - {"0", "1"}:
+            raise ParameterError(
+                f"Argument {name!r} must be a string of 0s and 1s, not {value!r}."
+            )
+        return np.frombuffer(text.encode("ascii"), dtype=np.uint8) - ord("0")
+    arr = np.asarray(value)
+    if arr.ndim != 1 or arr.size == 0 or arr.dtype.kind not in "biu":
+        raise ParameterError(f"Argument {name!r} must be a non-empty 0/1 vector, not {value!r}.")
+    if ((arr != 0) & (arr != 1)).any():
+        raise ParameterError(f"Argument {name!r} must hold only 0 and 1.")
+    return arr.astype(np.uint8)
+
+
+def _with_parity(G: np.ndarray) -> np.ndarray:
+    """``G`` with an overall parity column appended."""
+    G = np.asarray(G, dtype=np.uint8)
+    return np.hstack([G, (G.sum(axis=1) % 2).astype(np.uint8)[:, None]])
+
+
+def _check_length(name: str, n: int) -> None:
+    if n > MAX_LENGTH:
+        raise ParameterError(
+            f"Argument {name!r} gives length {n}, more than the largest supported "
+            f"length {MAX_LENGTH}."
+        )
+
+
+def _x_n_minus_1(n: int) -> galois.Poly:
+    return galois.Poly.Degrees([n, 0])
+
+
+def _ascending(poly: galois.Poly, n: int) -> np.ndarray:
+    """Coefficients ``c_0 .. c_{n-1}`` of ``poly`` (degree below ``n``)."""
+    out = np.zeros(n, dtype=np.uint8)
+    c = np.asarray(poly.coeffs, dtype=np.uint8)[::-1]
+    out[: c.size] = c
+    return out
+
+
+def _is_prime(p: int) -> bool:
+    if p < 2:
+        return False
+    return all(p % q for q in range(2, math.isqrt(p) + 1))
+
+
+def _order_of_two(n: int) -> int:
+    """Multiplicative order of 2 modulo odd ``n > 1``."""
+    m, x = 1, 2 % n
+    while x != 1:
+        x = (2 * x) % n
+        m += 1
+    return m
+
+
+def _cyclotomic_coset(s: int, n: int) -> list[int]:
+    coset, x = [], s % n
+    while x not in coset:
+        coset.append(x)
+        x = (2 * x) % n
+    return coset
+
+
+# -------------------------------------------------------------- polynomials
+_TERM = re.compile(r"^(?:(1)|x(?:(?:\^|\*\*)(\d+))?)$")
+
+
+def parse_polynomial(text: str | galois.Poly) -> galois.Poly:
+    """A polynomial over GF(2) from a ``galois.Poly`` or text (see the module notes).
+
+    Raises
+    ------
+    ParseError
+        If the text is in none of the three notations, or a term appears twice.
+
+    Examples
+    --------
+    >>> str(parse_polynomial("x^3 + x + 1"))
+    'x^3 + x + 1'
+    >>> str(parse_polynomial("0o13"))
+    'x^3 + x + 1'
+    >>> str(parse_polynomial("0b1011"))
+    'x^3 + x + 1'
+    """
+    if isinstance(text, galois.Poly):
+        if text.field is not GF2:
+            raise ParseError(f"<polynomial>: the polynomial must be over GF(2), not {text.field}.")
+        return text
+    if not isinstance(text, str):
+        raise ParseError(f"<polynomial>: expected a string or galois.Poly, not {text!r}.")
+    s = re.sub(r"\s", "", text)
+    low = s.lower()
+    try:
+        if low.startswith("0o"):
+            return galois.Poly.Int(int(low[2:], 8))
+        if low.startswith("0b"):
+            return galois.Poly.Int(int(low[2:], 2))
+    except ValueError:
+        raise ParseError(
+            f"<polynomial>: {text!r} is not a valid {'octal' if low[1] == 'o' else 'binary'} "
+            "number."
+        ) from None
+    if not s:
+        raise ParseError("<polynomial>: the polynomial is empty.")
+    degrees: set[int] = set()
+    for term in re.split(r"[+-]", s):
+        m = _TERM.match(term)
+        if not m:
+            raise ParseError(
+                f"<polynomial>: cannot read the term {term!r} of {text!r}; write terms like "
+                "x^5, x or 1 joined by +, or use octal 0o... or binary 0b..."
+            )
+        deg = 0 if m.group(1) else int(m.group(2) or 1)
+        if deg in degrees:
+            raise ParseError(f"<polynomial>: the term of degree {deg} appears twice in {text!r}.")
+        degrees.add(deg)
+    return galois.Poly.Degrees(sorted(degrees, reverse=True))
+
+
+def polynomial_to_octal(poly: galois.Poly) -> str:
+    """The octal notation ``0o...`` of a GF(2) polynomial (highest degree first).
+
+    >>> polynomial_to_octal(parse_polynomial("x^11+x^9+x^7+x^6+x^5+x+1"))
+    '0o5343'
+    """
+    return "0o" + format(int(poly), "o")
+
+
+def _longest_cyclic_run(mask: np.ndarray) -> int:
+    """Longest run of ``True`` in a cyclic boolean sequence that is not all ``True``."""
+    if not mask.any():
+        return 0
+    start = int(np.flatnonzero(~mask)[0])
+    seq = np.concatenate([[False], np.roll(mask, -start), [False]]).astype(np.int8)
+    d = np.diff(seq)
+    return int((np.flatnonzero(d == -1) - np.flatnonzero(d == 1)).max())
+
+
+#: The lexicographically first primitive polynomial of each degree m, as an integer
+#: (bit i = coefficient of x^i); computed with ``galois.primitive_poly(2, m)`` and
+#: checked against it by tests/test_families.py.
+PRIMITIVE_POLYNOMIALS = {
+    2: 7, 3: 11, 4: 19, 5: 37, 6: 67, 7: 131, 8: 285, 9: 529, 10: 1033, 11: 2053,
+    12: 4179, 13: 8219, 14: 16427, 15: 32771, 16: 65581,
+}
+
+
+class _FieldTables:
+    """GF(2^m) by exponent and logarithm tables; ``alpha`` (the element 2) is primitive."""
+
+    def __init__(self, m: int) -> None:
+        q = 1 << m
+        poly = PRIMITIVE_POLYNOMIALS[m]
+        self.m, self.order = m, q - 1
+        exp = np.zeros(2 * (q - 1), dtype=np.int64)
+        log = np.zeros(q, dtype=np.int64)
+        x = 1
+        for i in range(q - 1):
+            exp[i] = x
+            log[x] = i
+            x <<= 1
+            if x & q:
+                x ^= poly
+        exp[q - 1:] = exp[: q - 1]
+        self.exp, self.log = exp, log
+
+    def mul(self, a: np.ndarray, b: np.ndarray) -> np.ndarray:
+        out = self.exp[self.log[a] + self.log[b]]
+        return np.where((a == 0) | (b == 0), 0, out)
+
+    def power(self, e: np.ndarray) -> np.ndarray:
+        """``alpha^e`` for integer exponents."""
+        return self.exp[np.asarray(e, dtype=np.int64) % self.order]
+
+    def poly_from_roots(self, exponents: Sequence[int]) -> np.ndarray:
+        """Ascending coefficients of ``prod (x - alpha^e)``."""
+        c = np.array([1], dtype=np.int64)
+        for e in exponents:
+            root = int(self.power(e))
+            shifted = np.concatenate([[0], c])
+            scaled = np.concatenate([self.mul(c, np.full(c.size, root)), [0]])
+            c = shifted ^ scaled
+        return c
+
+    def evaluate(self, ascending: np.ndarray, points: np.ndarray) -> np.ndarray:
+        """Values of a GF(2) polynomial (ascending 0/1 coefficients) at field elements."""
+        val = np.zeros(points.size, dtype=np.int64)
+        for coeff in ascending[::-1]:
+            val = self.mul(val, points) ^ int(coeff)
+        return val
+
+
+def _defining_set(n: int, g: galois.Poly) -> np.ndarray | None:
+    """Mask of the exponents ``i`` with ``g(beta^i) = 0`` for a primitive n-th root beta.
+
+    None when ``n`` is even (repeated roots) or the splitting field is too large.
+    """
+    if n % 2 == 0:
+        return None
+    if n == 1:
+        return np.array([g.degree > 0])
+    m = _order_of_two(n)
+    if m > _MAX_ROOT_FIELD_DEGREE:
+        return None
+    field_ = _FieldTables(m)
+    beta_powers = field_.power(np.arange(n) * (field_.order // n))
+    values = field_.evaluate(_ascending(g, n), beta_powers)
+    return values == 0
+
+
+def bch_bound(n: int, defining_set: npt.ArrayLike) -> int:
+    """The BCH bound of a cyclic code from its defining set.
+
+    If ``g(beta^(b + i s)) = 0`` for ``i = 0 .. delta-2``, with ``beta`` a primitive
+    n-th root of unity and ``gcd(s, n) = 1``, then ``d >= delta`` ([1]_ ch. 7
+    Theorem 8; [2]_ Theorem 5.1.1). This returns the largest such ``delta`` over
+    all starts ``b`` and strides ``s``.
+
+    Parameters
+    ----------
+    n : int
+        Length (odd).
+    defining_set : array_like
+        The exponents ``i`` (``0 <= i < n``) with ``g(beta^i) = 0``, or a boolean
+        mask of length ``n``.
+
+    Examples
+    --------
+    >>> bch_bound(7, [1, 2, 4])       # the [7, 4] Hamming code
+    3
+    """
+    mask = np.zeros(n, dtype=bool)
+    arr = np.asarray(defining_set)
+    if arr.dtype == bool:
+        mask[:] = arr
+    else:
+        mask[arr.astype(np.int64) % n] = True
+    if mask.all():
+        raise ParameterError("The defining set holds every exponent: the code is {0}.")
+    best = 0
+    idx = np.arange(n)
+    for s in range(1, n if n > 1 else 2):
+        if math.gcd(s, n) != 1:
+            continue
+        best = max(best, _longest_cyclic_run(mask[(idx * s) % n]))
+    return best + 1
+
+
+def _cyclic_code(n: int, g: galois.Poly, *, name: str, recipe: dict[str, Any],
+                 d_lower: int | None = None, d_upper: int | None = None,
+                 defining_set: np.ndarray | None = None) -> Code:
+    """The cyclic code generated by ``g`` (which divides ``x^n - 1``)."""
+    k = n - g.degree
+    coeffs = _ascending(g, n)
+    G = np.zeros((k, n), dtype=np.uint8)
+    for i in range(k):
+        G[i] = np.roll(coeffs, i)
+    weight = int(coeffs.sum())  # every row is a shift of g: a codeword of this weight
+    if defining_set is None:
+        defining_set = _defining_set(n, g)
+    lower = bch_bound(n, defining_set) if defining_set is not None else None
+    lows = [x for x in (d_lower, lower) if x is not None]
+    lo = max(lows) if lows else None
+    hi = weight if d_upper is None else min(d_upper, weight)
+    return Code(G, name=name, recipe=[recipe], d_lower=lo, d_upper=hi)
+
+
+# ------------------------------------------------------------------ families
+def repetition(n: int) -> Code:
+    """The ``[n, 1, n]`` repetition code.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 1 section 2.
+
+    >>> C = repetition(5); (C.n, C.k, C.d_lower, C.d_upper)
+    (5, 1, 5, 5)
+    """
+    n = check_int("n", n, minimum=1)
+    return Code(np.ones((1, n), dtype=np.uint8), name=f"repetition [{n},1]",
+                recipe=[{"family": "repetition", "n": n}], d_lower=n, d_upper=n)
+
+
+def even_weight(n: int) -> Code:
+    """The ``[n, n-1, 2]`` even-weight (single parity check) code.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 1 section 2.
+
+    >>> C = even_weight(4); (C.n, C.k, C.d_lower, C.d_upper)
+    (4, 3, 2, 2)
+    """
+    n = check_int("n", n, minimum=2, maximum=MAX_LENGTH)
+    G = np.hstack([np.eye(n - 1, dtype=np.uint8), np.ones((n - 1, 1), dtype=np.uint8)])
+    return Code(G, name=f"even-weight [{n},{n - 1}]",
+                recipe=[{"family": "even-weight", "n": n}], d_lower=2, d_upper=2)
+
+
+def _hamming_columns(m: int) -> np.ndarray:
+    """The ``m x (2^m - 1)`` matrix whose column ``j`` is ``j + 1`` in binary (bit i in row i)."""
+    j = np.arange(1, 2**m, dtype=np.int64)
+    return ((j[None, :] >> np.arange(m)[:, None]) & 1).astype(np.uint8)
+
+
+def hamming(m: int) -> Code:
+    """The ``[2^m - 1, 2^m - 1 - m, 3]`` Hamming code.
+
+    Its parity-check matrix has every nonzero vector of length ``m`` as a column
+    (column ``j`` is ``j + 1`` in binary, least significant bit in row 0).
+
+    Parameters
+    ----------
+    m : int
+        Redundancy, ``2 <= m <= 12``.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 1 section 7.
+    .. [2] Huffman & Pless (2003), section 1.8.
+
+    >>> C = hamming(3); (C.n, C.k, C.d_lower, C.d_upper)
+    (7, 4, 3, 3)
+    """
+    m = check_int("m", m, minimum=2, maximum=12)
+    n = 2**m - 1
+    return Code.from_parity_check(_hamming_columns(m), name=f"Hamming [{n},{n - m}]",
+                                  recipe=[{"family": "hamming", "m": m}], d_lower=3, d_upper=3)
+
+
+def extended_hamming(m: int) -> Code:
+    """The ``[2^m, 2^m - 1 - m, 4]`` extended Hamming code (:func:`hamming` plus parity).
+
+    Parameters
+    ----------
+    m : int
+        ``2 <= m <= 12``.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 1 section 9.
+
+    >>> C = extended_hamming(3); (C.n, C.k, C.d_lower, C.d_upper)
+    (8, 4, 4, 4)
+    """
+    m = check_int("m", m, minimum=2, maximum=12)
+    n = 2**m
+    G = _with_parity(hamming(m).G)
+    return Code(G, name=f"extended Hamming [{n},{n - 1 - m}]",
+                recipe=[{"family": "extended-hamming", "m": m}], d_lower=4, d_upper=4)
+
+
+def simplex(m: int) -> Code:
+    """The ``[2^m - 1, m, 2^(m-1)]`` simplex code, the dual of :func:`hamming`.
+
+    Every nonzero codeword has weight ``2^(m-1)``.
+
+    Parameters
+    ----------
+    m : int
+        ``2 <= m <= 12``.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 1 section 9.
+
+    >>> C = simplex(3); (C.n, C.k, C.d_lower, C.d_upper)
+    (7, 3, 4, 4)
+    """
+    m = check_int("m", m, minimum=2, maximum=12)
+    d = 2 ** (m - 1)
+    return Code(_hamming_columns(m), name=f"simplex [{2**m - 1},{m}]",
+                recipe=[{"family": "simplex", "m": m}], d_lower=d, d_upper=d)
+
+
+def reed_muller(r: int, m: int) -> Code:
+    """The Reed-Muller code ``RM(r, m)``: ``[2^m, sum_{i<=r} C(m, i), 2^(m-r)]``.
+
+    The rows are the evaluations of the monomials of degree at most ``r`` in
+    ``v_1 .. v_m`` at every point of GF(2)^m (point ``j`` has ``v_i`` = bit ``i-1``
+    of ``j``), in order of degree, then lexicographically.
+
+    Parameters
+    ----------
+    r : int
+        Order, ``0 <= r <= m``.
+    m : int
+        ``1 <= m <= 12``.
+
+    References
+    ----------
+    .. [1] Reed (1954); Muller (1954).
+    .. [2] MacWilliams & Sloane (1977), ch. 13 sections 3-4 (Theorem 3: the
+       minimum distance is ``2^(m-r)``).
+
+    >>> C = reed_muller(1, 3); (C.n, C.k, C.d_lower, C.d_upper)
+    (8, 4, 4, 4)
+    """
+    m = check_int("m", m, minimum=1, maximum=12)
+    r = check_int("r", r, minimum=0, maximum=m)
+    n = 2**m
+    points = ((np.arange(n)[None, :] >> np.arange(m)[:, None]) & 1).astype(np.uint8)
+    rows = []
+    for deg in range(r + 1):
+        for subset in combinations(range(m), deg):
+            row = np.ones(n, dtype=np.uint8)
+            for i in subset:
+                row &= points[i]
+            rows.append(row)
+    d = 2 ** (m - r)
+    return Code(np.array(rows), name=f"Reed-Muller RM({r},{m}) [{n},{len(rows)}]",
+                recipe=[{"family": "reed-muller", "r": r, "m": m}], d_lower=d, d_upper=d)
+
+
+#: Generator polynomial of the binary Golay code (MacWilliams & Sloane ch. 16 section 6).
+GOLAY_POLYNOMIAL = "x^11+x^10+x^6+x^5+x^4+x^2+1"
+
+
+def golay() -> Code:
+    """The ``[23, 12, 7]`` binary Golay code, cyclic with generator
+    ``x^11 + x^10 + x^6 + x^5 + x^4 + x^2 + 1``.
+
+    References
+    ----------
+    .. [1] Golay (1949).
+    .. [2] MacWilliams & Sloane (1977), ch. 16 section 6 and ch. 20 (d = 7).
+
+    >>> C = golay(); (C.n, C.k, C.d_lower, C.d_upper)
+    (23, 12, 7, 7)
+    """
+    g = parse_polynomial(GOLAY_POLYNOMIAL)
+    return _cyclic_code(23, g, name="Golay [23,12]", recipe={"family": "golay"},
+                        d_lower=7, d_upper=7)
+
+
+def extended_golay() -> Code:
+    """The ``[24, 12, 8]`` extended binary Golay code (:func:`golay` plus parity).
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 2 section 6 and ch. 20.
+
+    >>> C = extended_golay(); (C.n, C.k, C.d_lower, C.d_upper)
+    (24, 12, 8, 8)
+    """
+    return Code(_with_parity(golay().G), name="extended Golay [24,12]",
+                recipe=[{"family": "extended-golay"}], d_lower=8, d_upper=8)
+
+
+def bch(n: int, designed: int, *, b: int = 1) -> Code:
+    """The binary primitive BCH code of length ``n = 2^m - 1`` and designed distance ``δ``.
+
+    The generator polynomial is the least common multiple of the minimal
+    polynomials of ``α^b, α^(b+1), ..., α^(b+δ-2)``, with ``α`` a root of the
+    lexicographically first primitive polynomial of degree ``m`` (for example
+    ``x^6 + x + 1`` for ``m = 6``; ``galois.primitive_poly(2, m)``); ``b = 1`` is
+    the narrow-sense code. The dimension is ``n`` minus the size of the defining
+    set, so it is exact. ``d_lower`` is the BCH bound of the whole
+    defining set (at least ``δ``, sometimes more: the *Bose distance*); ``d_upper``
+    is the weight of the generator polynomial. The true distance is not claimed.
+
+    Parameters
+    ----------
+    n : int
+        ``2^m - 1`` with ``2 <= m <= 12``.
+    designed : int
+        Designed distance ``δ``, ``2 <= δ <= n``.
+    b : int
+        Exponent of the first consecutive root, ``0 <= b < n``.
+
+    Raises
+    ------
+    ParameterError
+        If ``n`` is not ``2^m - 1``, ``δ`` or ``b`` is out of range, or the roots
+        cover every exponent (the code would be {0}).
+
+    References
+    ----------
+    .. [1] Bose & Ray-Chaudhuri (1960); Hocquenghem (1959).
+    .. [2] MacWilliams & Sloane (1977), ch. 7 sections 6-7 (definition, Theorem 8
+       the BCH bound) and ch. 9.
+
+    >>> C = bch(15, 5); (C.n, C.k, C.d_lower)
+    (15, 7, 5)
+    """
+    n = check_int("n", n, minimum=3, maximum=MAX_LENGTH)
+    m = n.bit_length()
+    if 2**m - 1 != n:
+        raise ParameterError(
+            f"Argument 'n' must be of the form 2^m - 1 (3, 7, 15, 31, 63, ..., 4095), not {n}."
+        )
+    designed = check_int("designed", designed, minimum=2, maximum=n)
+    b = check_int("b", b, minimum=0, maximum=n - 1)
+    mask = np.zeros(n, dtype=bool)
+    for e in range(b, b + designed - 1):
+        if not mask[e % n]:
+            mask[_cyclotomic_coset(e, n)] = True
+    k = n - int(mask.sum())
+    if k == 0:
+        raise ParameterError(
+            f"The roots alpha^{b} .. alpha^{b + designed - 2} cover every exponent modulo {n}: "
+            f"the BCH code is {{0}}; choose a smaller 'designed' (at most {n - 1})."
+        )
+    coeffs = _FieldTables(m).poly_from_roots(np.flatnonzero(mask).tolist())
+    if ((coeffs != 0) & (coeffs != 1)).any():  # pragma: no cover - closed under squaring
+        raise AssertionError("BCH generator polynomial has coefficients outside GF(2)")
+    g = galois.Poly(coeffs[::-1].astype(np.int64))
+    kind = "narrow-sense " if b == 1 else f"b={b} "
+    return _cyclic_code(
+        n, g, name=f"BCH [{n},{k}] {kind}designed distance {designed}",
+        recipe={"family": "bch", "n": n, "designed": designed, "b": b},
+        d_lower=designed, defining_set=mask,
+    )
+
+
+def quadratic_residue(p: int) -> Code:
+    """The binary quadratic-residue code ``[p, (p+1)/2]`` for a prime ``p ≡ ±1 (mod 8)``.
+
+    Let ``Q`` be the nonzero squares modulo ``p``. Because 2 is a square, the
+    polynomial ``e(x) = sum_{r in Q} x^r`` is an idempotent; the cyclic code it
+    generates has generator ``g(x) = gcd(e(x), x^p - 1)`` and dimension
+    ``(p-1)/2 + e(1)`` ([1]_ ch. 16 section 3). For ``p ≡ -1 (mod 8)``, ``e(1) = 1``
+    and this is the quadratic-residue code; for ``p ≡ 1 (mod 8)`` it is the
+    even-weight subcode, and ``g(x) / (x + 1)`` generates the code. Either way
+    the zeros of ``g`` are ``β^r``, ``r`` ranging over the squares or over the
+    non-squares, for a primitive p-th root ``β``: one of the two equivalent
+    quadratic-residue codes.
+
+    ``d_lower`` is the square-root bound (``d^2 >= p``, and ``d^2 - d + 1 >= p``
+    when ``p ≡ -1 (mod 8)``), rounded up to odd because the minimum weight of a
+    binary quadratic-residue code is odd; ``d_upper`` is the weight of ``g``.
+
+    Parameters
+    ----------
+    p : int
+        A prime ``≡ ±1 (mod 8)`` (7, 17, 23, 31, 41, 47, 71, 73, ...), at most 4096.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 16 sections 1-3 (definition,
+       idempotents) and Theorem 1 (square-root bound).
+    .. [2] Huffman & Pless (2003), section 6.6 (square-root bound; the minimum
+       weight of a binary QR code is odd, by the Gleason-Prange theorem).
+    .. [3] Conway & Sloane (1988), ch. 3 section 2.
+
+    >>> C = quadratic_residue(23); (C.n, C.k, C.d_lower, C.d_upper)
+    (23, 12, 7, 7)
+    """
+    p = check_int("p", p, minimum=7, maximum=MAX_LENGTH)
+    if not _is_prime(p) or p % 8 not in (1, 7):
+        raise ParameterError(
+            f"Argument 'p' must be a prime congruent to 1 or 7 modulo 8 (7, 17, 23, 31, 41, 47, "
+            f"71, 73, ...), not {p}"
+            + (" (it is not prime)." if not _is_prime(p) else f" (it is {p % 8} modulo 8).")
+        )
+    squares = sorted({(i * i) % p for i in range(1, p)})
+    e = galois.Poly.Degrees(sorted(squares, reverse=True))
+    g = galois.gcd(e, _x_n_minus_1(p))
+    if p % 8 == 1:
+        g = g // galois.Poly([1, 1])
+    if g.degree != (p - 1) // 2:  # pragma: no cover - guards the theory above
+        raise AssertionError(f"quadratic residue generator of degree {g.degree} for p = {p}")
+    d = math.isqrt(p - 1) + 1  # least d with d^2 >= p (p is not a square)
+    if p % 8 == 7:  # p ≡ 3 (mod 4): the stronger d^2 - d + 1 >= p
+        while d * d - d + 1 < p:
+            d += 1
+    d += 1 - d % 2
+    return _cyclic_code(p, g, name=f"quadratic residue [{p},{(p + 1) // 2}]",
+                        recipe={"family": "qr", "p": p}, d_lower=d)
+
+
+def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
+    """The cyclic code of length ``n`` generated by a divisor ``g(x)`` of ``x^n - 1``.
+
+    ``d_upper`` is the weight of ``g`` (itself a codeword); ``d_lower`` is the BCH
+    bound of the roots of ``g`` (:func:`bch_bound`) when ``n`` is odd and the roots
+    lie in a field ``GF(2^m)`` with ``m <= 16``, else unknown.
+
+    Parameters
+    ----------
+    n : int
+        Length, ``1 <= n <= 4096``.
+    generator_polynomial : str or galois.Poly
+        See the module notes for the text notations (``x^3+x+1``, ``0o13``,
+        ``0b1011``).
+
+    Raises
+    ------
+    ParameterError
+        If the polynomial does not divide ``x^n - 1`` or is ``x^n - 1`` itself.
+    ParseError
+        If the text cannot be read as a polynomial.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 7 sections 2-3.
+
+    >>> C = cyclic(7, "x^3+x+1"); (C.n, C.k, C.d_lower, C.d_upper)
+    (7, 4, 3, 3)
+    """
+    n = check_int("n", n, minimum=1, maximum=MAX_LENGTH)
+    g = parse_polynomial(generator_polynomial)
+    if g == 0 or _x_n_minus_1(n) % g != 0:
+        raise ParameterError(
+            f"Argument 'generator_polynomial' must divide x^{n} - 1, and {g} does not; "
+            f"gf2codes.families.cyclic_codes({n}) lists the divisors."
+        )
+    if g.degree == n:
+        raise ParameterError(
+            f"Argument 'generator_polynomial' is x^{n} - 1 itself: the code is {{0}}."
+        )
+    octal = polynomial_to_octal(g)
+    return _cyclic_code(n, g, name=f"cyclic [{n},{n - g.degree}] g = {octal}",
+                        recipe={"family": "cyclic", "n": n, "generator_polynomial": octal})
+
+
+@dataclass(frozen=True)
+class CyclicCode:
+    """One cyclic code of length ``n``: its generator polynomial and dimension."""
+
+    generator_polynomial: galois.Poly
+    n: int
+    k: int
+
+    @property
+    def octal(self) -> str:
+        return polynomial_to_octal(self.generator_polynomial)
+
+    def build(self) -> Code:
+        """The code itself (see :func:`cyclic`)."""
+        return cyclic(self.n, self.generator_polynomial)
+
+
+def cyclic_codes(n: int, *, limit: int = 65536) -> list[CyclicCode]:
+    """Every nonzero cyclic code of length ``n``, one per divisor of ``x^n - 1``.
+
+    The divisors are the products of the irreducible factors of ``x^n - 1``
+    (with multiplicity when ``n`` is even); ``g = x^n - 1`` (the zero code) is
+    left out and ``g = 1`` (the whole space) included. Sorted by dimension
+    (largest first), then by the integer value of the polynomial.
+
+    Parameters
+    ----------
+    n : int
+        Length, ``1 <= n <= 4096``.
+    limit : int
+        Refuse (``ParameterError``) when there would be more codes than this.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 7 section 5.
+
+    >>> [(c.octal, c.k) for c in cyclic_codes(7)]
+    [('0o1', 7), ('0o3', 6), ('0o13', 4), ('0o15', 4), ('0o27', 3), ('0o35', 3), ('0o177', 1)]
+    """
+    n = check_int("n", n, minimum=1, maximum=MAX_LENGTH)
+    factors, mults = _x_n_minus_1(n).factors()
+    count = math.prod(e + 1 for e in mults) - 1
+    if count > limit:
+        raise ParameterError(
+            f"x^{n} - 1 has {count} proper divisors, more than the limit {limit}; "
+            "raise 'limit' to list them all."
+        )
+    divisors = [galois.Poly.One()]
+    for f, e in zip(factors, mults, strict=True):
+        powers = [galois.Poly.One()]
+        for _ in range(e):
+            powers.append(powers[-1] * f)
+        divisors = [d * q for d in divisors for q in powers]
+    out = [CyclicCode(d, n, n - d.degree) for d in divisors if d.degree < n]
+    out.sort(key=lambda c: (-c.k, int(c.generator_polynomial)))
+    return out
+
+
+def quasi_cyclic(rows: Sequence[str] | npt.ArrayLike, m: int) -> Code:
+    """A quasi-cyclic code of co-index ``m``: each row with all its block-wise shifts.
+
+    Each given row has length ``ℓ m`` and is cut into ``ℓ`` blocks of ``m``; the
+    code is spanned by the rows obtained by shifting every block cyclically by
+    the same amount ``s = 0 .. m-1``. With one row, the generator matrix is
+    ``[C_1 | C_2 | ... | C_ℓ]`` with ``C_j`` the circulant whose first row is block
+    ``j``. ``d_upper`` is the least weight of a given nonzero row.
+
+    Parameters
+    ----------
+    rows : sequence of str or 2-D array_like
+        The first rows, as 0/1 strings (``|``, spaces and commas are ignored,
+        so ``"1101000|1110010"`` is fine) or a 0/1 matrix.
+    m : int
+        Size of the circulants, ``m >= 1``.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 16 section 7 (quasi-cyclic and double
+       circulant codes).
+    .. [2] Huffman & Pless (2003), section 9.8.
+
+    >>> quasi_cyclic(["1101000|1110010"], 7).k   # both circulants have rank 4
+    4
+    >>> quasi_cyclic(["1000000|1101000"], 7).k   # [I | A]
+    7
+    """
+    m = check_int("m", m, minimum=1, maximum=MAX_LENGTH)
+    if isinstance(rows, str):
+        rows = [rows]
+    vecs = [_parse_bits("rows", r) for r in (rows if not isinstance(rows, np.ndarray) else
+                                              list(rows))]
+    if not vecs:
+        raise ParameterError("Argument 'rows' must hold at least one row.")
+    n = vecs[0].size
+    for v in vecs:
+        if v.size != n:
+            raise ParameterError(
+                f"Argument 'rows' must hold rows of one length, not {n} and {v.size}."
+            )
+    if n % m:
+        raise ParameterError(
+            f"Argument 'rows' must have a length divisible by m = {m}, not {n}."
+        )
+    _check_length("rows", n)
+    ell = n // m
+    G = []
+    for v in vecs:
+        blocks = v.reshape(ell, m)
+        for s in range(m):
+            G.append(np.roll(blocks, s, axis=1).reshape(-1))
+    weights = [int(v.sum()) for v in vecs if v.any()]
+    code = Code(np.array(G), name=None,
+                recipe=[{"family": "quasi-cyclic", "rows": [_bits_string(v) for v in vecs],
+                         "m": m}],
+                d_upper=min(weights) if weights else None)
+    return code.with_info(name=f"quasi-cyclic [{code.n},{code.k}] index {ell}")
+
+
+def double_circulant(first_row: str | npt.ArrayLike) -> Code:
+    """The pure double circulant code ``[I | A]``, ``A`` the circulant with ``first_row``.
+
+    An ``[2ℓ, ℓ]`` code; ``d_upper`` is ``1 +`` the weight of ``first_row`` (a row's
+    weight).
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 16 section 7.
+
+    >>> C = double_circulant("0111"); (C.n, C.k, C.d_upper)
+    (8, 4, 4)
+    """
+    a = _parse_bits("first_row", first_row)
+    ell = a.size
+    _check_length("first_row", 2 * ell)
+    eye = np.zeros(ell, dtype=np.uint8)
+    eye[0] = 1
+    base = quasi_cyclic([np.concatenate([eye, a])], ell)
+    return base.with_info(
+        name=f"double circulant [{2 * ell},{ell}]",
+        recipe=[{"family": "double-circulant", "first_row": _bits_string(a)}],
+    )
+
+
+def from_rows(generator: Sequence[str] | npt.ArrayLike, n: int | None = None) -> Code:
+    """A code given by its generator rows (0/1 strings or a matrix), with no known distance.
+
+    This is the first step of the recipe of a code that was read from a file
+    without a recipe. ``n``, when given, must equal the row length.
+
+    >>> from_rows(["110", "011"]).k
+    2
+    """
+    if isinstance(generator, str):
+        generator = [generator]
+    if isinstance(generator, np.ndarray) or (
+            len(generator) and not isinstance(generator[0], str)):
+        bits = np.asarray(generator, dtype=np.int64)
+    else:
+        vecs = [_parse_bits("generator", r) for r in generator]
+        if not vecs or len({v.size for v in vecs}) != 1:
+            raise ParameterError("Argument 'generator' must hold rows of one length.")
+        bits = np.array(vecs)
+    code = Code(bits)
+    if n is not None and check_int("n", n, minimum=1) != code.n:
+        raise ParameterError(f"Argument 'n' is {n} but the generator rows have length {code.n}.")
+    return code.with_info(
+        name=f"matrix [{code.n},{code.k}]",
+        recipe=[{"family": "matrix", "n": code.n,
+                 "generator": [_bits_string(r) for r in code.rref_generator]}],
+    )
+
+
+# ------------------------------------------------------------------ registry
+@dataclass(frozen=True)
+class FamilyArgument:
+    """One argument of a family builder, as the command line presents it.
+
+    ``kind`` is ``"int"``, ``"polynomial"``, ``"bits"`` (one 0/1 string) or
+    ``"bits-list"`` (one or more); ``option`` arguments are given as ``--name``.
+    """
+
+    name: str
+    kind: str
+    help: str
+    option: bool = False
+    required: bool = True
+    default: Any = None
+
+
+@dataclass(frozen=True)
+class Family:
+    """A named construction: what it is, its arguments, and the function that builds it."""
+
+    name: str
+    description: str
+    builder: Callable[..., Code]
+    arguments: tuple[FamilyArgument, ...] = field(default=())
+    example: str = ""
+
+    def build(self, **kwargs: Any) -> Code:
+        return self.builder(**kwargs)
+
+
+def _int(name: str, help_: str, **kw: Any) -> FamilyArgument:
+    return FamilyArgument(name, "int", help_, **kw)
+
+
+#: Family name -> :class:`Family`, in the order ``gf2codes build --list`` shows them.
+FAMILIES: dict[str, Family] = {
+    f.name: f
+    for f in [
+        Family("repetition", "[n, 1, n] repetition code", repetition,
+               (_int("n", "length"),), "repetition 5"),
+        Family("even-weight", "[n, n-1, 2] single parity check code", even_weight,
+               (_int("n", "length, 2..4096"),), "even-weight 8"),
+        Family("hamming", "[2^m-1, 2^m-1-m, 3] Hamming code", hamming,
+               (_int("m", "redundancy, 2..12"),), "hamming 3"),
+        Family("extended-hamming", "[2^m, 2^m-1-m, 4] extended Hamming code",
+               extended_hamming, (_int("m", "2..12"),), "extended-hamming 7"),
+        Family("simplex", "[2^m-1, m, 2^(m-1)] simplex code (dual of Hamming)", simplex,
+               (_int("m", "2..12"),), "simplex 4"),
+        Family("reed-muller", "[2^m, sum_{i<=r} C(m,i), 2^(m-r)] Reed-Muller code RM(r, m)",
+               reed_muller, (_int("r", "order, 0..m"), _int("m", "1..12")),
+               "reed-muller 2 6"),
+        Family("golay", "[23, 12, 7] binary Golay code", golay, (), "golay"),
+        Family("extended-golay", "[24, 12, 8] extended binary Golay code", extended_golay,
+               (), "extended-golay"),
+        Family("bch", "primitive BCH code, length 2^m-1, designed distance δ (d ≥ δ)", bch,
+               (_int("n", "length 2^m-1, 3..4095"),
+                _int("designed", "designed distance δ, 2..n", option=True),
+                _int("b", "first root exponent (1 = narrow sense), 0..n-1", option=True,
+                     required=False, default=1)),
+               "bch 63 --designed 11"),
+        Family("qr", "[p, (p+1)/2] quadratic-residue code, p prime ≡ ±1 mod 8",
+               quadratic_residue, (_int("p", "prime ≡ ±1 mod 8, 7..4096"),), "qr 47"),
+        Family("cyclic", "cyclic code from a generator polynomial dividing x^n - 1", cyclic,
+               (_int("n", "length, 1..4096"),
+                FamilyArgument("generator_polynomial", "polynomial",
+                               "g(x): 'x^3+x+1', octal '0o13' or binary '0b1011'")),
+               'cyclic 23 "x^11+x^9+x^7+x^6+x^5+x+1"'),
+        Family("double-circulant", "[2l, l] double circulant code [I | A], A circulant",
+               double_circulant,
+               (FamilyArgument("first_row", "bits", "first row of A, a 0/1 string"),),
+               "double-circulant 01110100111"),
+        Family("quasi-cyclic", "quasi-cyclic code: rows of l blocks of m, with block-wise "
+               "cyclic shifts", quasi_cyclic,
+               (_int("m", "circulant size"),
+                FamilyArgument("rows", "bits-list",
+                               "first rows, 0/1 strings of length l*m ('|' may separate "
+                               "blocks)")),
+               "quasi-cyclic 7 1000000|1101000"),
+        Family("matrix", "a code given by its generator rows (0/1 strings)", from_rows,
+               (FamilyArgument("generator", "bits-list", "generator rows, 0/1 strings"),),
+               "matrix 1100 0011"),
+    ]
+}

@@ -1,0 +1,419 @@
+"""Tests of gf2codes.families and of ``gf2codes build``.
+
+Sources of the check values are given beside them; "brute force" means every
+codeword is enumerated in this test with gf2codes._reference.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import os
+import subprocess
+import sys
+from math import comb
+
+import galois
+import numpy as np
+import pytest
+
+from gf2codes import families as F
+from gf2codes._reference import brute_distance
+from gf2codes.cli import main
+from gf2codes.code import Code
+from gf2codes.derive import rebuild
+from gf2codes.exceptions import ParameterError, ParseError
+from gf2codes.formats import read_code
+
+
+def _check_claims(code: Code, d: int) -> None:
+    """The construction's bounds must contain the true distance."""
+    if code.d_lower is not None:
+        assert code.d_lower <= d, (code, code.d_lower, d)
+    if code.d_upper is not None:
+        assert d <= code.d_upper, (code, code.d_upper, d)
+
+
+# ------------------------------------------------------------ parameter formulas
+@pytest.mark.parametrize("m", [2, 3, 4, 5])
+def test_hamming_simplex_parameters(m):
+    """[2^m-1, 2^m-1-m, 3] and [2^m-1, m, 2^(m-1)]: MacWilliams & Sloane ch. 1 sections 7, 9;
+    d computed by brute force for the small ones."""
+    n = 2**m - 1
+    H, S, X = F.hamming(m), F.simplex(m), F.extended_hamming(m)
+    assert (H.n, H.k, H.d_lower, H.d_upper) == (n, n - m, 3, 3)
+    assert (S.n, S.k, S.d_lower, S.d_upper) == (n, m, 2 ** (m - 1), 2 ** (m - 1))
+    assert (X.n, X.k, X.d_lower, X.d_upper) == (n + 1, n - m, 4, 4)
+    assert S == H.dual()
+    assert brute_distance(S.G) == 2 ** (m - 1)
+    if H.k <= 16:
+        assert brute_distance(H.G) == 3
+        assert brute_distance(X.G) == 4
+    # every nonzero simplex codeword has weight 2^(m-1) (M&S ch. 1 section 9)
+    msgs = np.array([[(i >> j) & 1 for j in range(m)] for i in range(1, 2**m)])
+    assert set(((msgs @ S.G) % 2).sum(axis=1).tolist()) == {2 ** (m - 1)}
+
+
+@pytest.mark.parametrize("m", range(1, 6))
+def test_reed_muller_parameters(m):
+    """RM(r, m) = [2^m, sum_{i<=r} C(m, i), 2^(m-r)]: MacWilliams & Sloane ch. 13 Theorem 3;
+    d by brute force where k <= 16."""
+    for r in range(m + 1):
+        C = F.reed_muller(r, m)
+        k = sum(comb(m, i) for i in range(r + 1))
+        assert (C.n, C.k, C.d_lower, C.d_upper) == (2**m, k, 2 ** (m - r), 2 ** (m - r))
+        if k <= 16:
+            assert brute_distance(C.G) == 2 ** (m - r)
+
+
+@pytest.mark.parametrize("m", range(2, 8))
+def test_reed_muller_duality(m):
+    """RM(r, m)^⊥ = RM(m-r-1, m): MacWilliams & Sloane ch. 13 Theorem 4."""
+    for r in range(m):
+        assert F.reed_muller(r, m).dual() == F.reed_muller(m - r - 1, m)
+
+
+def test_extended_hamming_is_rm():
+    """RM(m-2, m) is the extended Hamming code: MacWilliams & Sloane ch. 13 section 3.
+    Hamming column j is the point j + 1 and the parity bit the point 0, so moving the
+    parity coordinate to the front lines the coordinates up."""
+    for m in range(3, 7):
+        X = F.extended_hamming(m)
+        assert Code(np.roll(X.G, 1, axis=1)) == F.reed_muller(m - 2, m)
+
+
+def test_repetition_and_even_weight():
+    for n in range(2, 9):
+        R, E = F.repetition(n), F.even_weight(n)
+        assert (R.k, R.d_lower, R.d_upper) == (1, n, n)
+        assert (E.k, E.d_lower, E.d_upper) == (n - 1, 2, 2)
+        assert R.dual() == E
+        assert brute_distance(E.G) == 2
+
+
+# ------------------------------------------------------------------------ Golay
+def test_golay():
+    """[23,12,7] and [24,12,8]: Golay (1949); MacWilliams & Sloane ch. 20. d by brute force."""
+    g = F.parse_polynomial(F.GOLAY_POLYNOMIAL)
+    assert galois.Poly.Degrees([23, 0]) % g == 0
+    G23, G24 = F.golay(), F.extended_golay()
+    assert (G23.n, G23.k, G23.d_lower, G23.d_upper) == (23, 12, 7, 7)
+    assert (G24.n, G24.k, G24.d_lower, G24.d_upper) == (24, 12, 8, 8)
+    assert brute_distance(G23.G) == 7
+    assert brute_distance(G24.G) == 8
+    assert G24.is_self_dual and G24.is_doubly_even  # M&S ch. 2 section 6
+    # the other Golay polynomial (its reciprocal) also divides x^23 - 1
+    assert galois.Poly.Degrees([23, 0]) % F.parse_polynomial("0o5343") == 0
+
+
+# -------------------------------------------------------------------------- BCH
+def test_primitive_polynomial_table():
+    """The table is the lexicographically first primitive polynomial, as galois computes."""
+    for m, value in F.PRIMITIVE_POLYNOMIALS.items():
+        if m <= 12:
+            assert int(galois.primitive_poly(2, m)) == value
+
+
+@pytest.mark.parametrize("n,k", [(15, 5), (31, 16), (63, 36),
+                                 (127, 64)])
+def test_bch_matches_galois(n, k):
+    """Same code as galois.BCH(n, k) with the same primitive polynomial. galois writes a
+    codeword with the highest-degree coefficient first, so its columns are reversed here."""
+    m = n.bit_length()
+    field = galois.GF(2**m, irreducible_poly=galois.primitive_poly(2, m))
+    ref = galois.BCH(n, k, extension_field=field)
+    C = F.bch(n, ref.d)
+    assert C.k == k
+    assert C == Code(np.fliplr(np.asarray(ref.G)))
+    assert C.d_lower >= ref.d
+
+
+@pytest.mark.parametrize("n,delta,k,d", [
+    # narrow-sense primitive BCH codes; k from MacWilliams & Sloane Appendix A
+    # (from memory — the standard table of BCH codes); d by brute force where k <= 16
+    (15, 3, 11, 3), (15, 5, 7, 5), (15, 7, 5, 7), (31, 5, 21, 5), (31, 7, 16, 7),
+    (31, 11, 11, 11), (63, 11, 36, None), (127, 21, 64, None), (255, 37, 131, None),
+])
+def test_bch_dimensions_and_bounds(n, delta, k, d):
+    C = F.bch(n, delta)
+    assert (C.n, C.k) == (n, k)
+    assert C.d_lower >= delta
+    assert C.recipe == ({"family": "bch", "n": n, "designed": delta, "b": 1},)
+    if d is not None and C.k <= 16:
+        assert brute_distance(C.G) == d
+        _check_claims(C, d)
+
+
+def test_bch_non_narrow_sense():
+    """b = 0 adds the root 1: the even-weight subcode of the narrow-sense code of designed
+    distance δ - 1 (MacWilliams & Sloane ch. 7 section 6; brute force)."""
+    C0 = F.bch(15, 6, b=0)
+    assert C0.is_even and C0.k == 6
+    d = brute_distance(C0.G)
+    assert d == 6
+    _check_claims(C0, d)
+
+
+def test_bose_distance_beats_designed():
+    """Designed 10 at n = 63: the cyclotomic coset of 5 contains 10, so the BCH bound
+    gives 11 (MacWilliams & Sloane ch. 9 section 3, the Bose distance)."""
+    assert F.bch(63, 10).d_lower == 11 and F.bch(63, 10) == F.bch(63, 11)
+
+
+@pytest.mark.parametrize("args,match", [
+    ((64, 3), "2\\^m - 1"),
+    ((63, 1), "'designed' must be at least 2, not 1"),
+    ((63, 64), "'designed' must be at most 63, not 64"),
+    ((7, 7, 0), "cover every exponent"),
+    ((7, 3, 9), "'b' must be at most 6, not 9"),
+])
+def test_bch_errors(args, match):
+    n, delta, *b = args
+    with pytest.raises(ParameterError, match=match):
+        F.bch(n, delta, **({"b": b[0]} if b else {}))
+
+
+# ---------------------------------------------------------- quadratic residue
+# d from MacWilliams & Sloane ch. 16, Fig. 16.2 (from memory — the table of QR codes)
+QR_DISTANCES = {7: 3, 17: 5, 23: 7, 31: 7, 41: 9, 47: 11}
+
+
+@pytest.mark.parametrize("p", [7, 17, 23, 31])
+def test_qr_distance_brute_force(p):
+    C = F.quadratic_residue(p)
+    assert (C.n, C.k) == (p, (p + 1) // 2)
+    d = brute_distance(C.G)
+    assert d == QR_DISTANCES[p]
+    _check_claims(C, d)
+
+
+@pytest.mark.parametrize("p", [41, 47])
+def test_qr_distance_large(p):
+    distance = pytest.importorskip("gf2codes.distance",
+                                   reason="gf2codes.distance (the lead's module) is missing")
+    C = F.quadratic_residue(p)
+    res = distance.minimum_distance(C, time_limit=20)
+    if not res.exact:
+        pytest.skip(f"minimum_distance did not finish within 20 s for QR({p})")
+    assert res.upper == QR_DISTANCES[p]
+    _check_claims(C, res.upper)
+
+
+@pytest.mark.parametrize("p", [17, 23])
+def test_qr_roots_are_residues(p):
+    """The zeros of g are beta^r, r over the squares (or over the non-squares), for a
+    primitive p-th root beta (MacWilliams & Sloane ch. 16 section 1)."""
+    m = 1
+    while pow(2, m, p) != 1:
+        m += 1
+    GF = galois.GF(2**m)
+    beta = GF.primitive_element ** ((2**m - 1) // p)
+    C = F.quadratic_residue(p)
+    g = galois.Poly(np.asarray(C.G[0][: p - C.k + 1][::-1], dtype=int), field=GF)
+    zeros = {i for i in range(1, p) if g(beta**i) == 0}
+    squares = {(i * i) % p for i in range(1, p)}
+    assert zeros in (squares, set(range(1, p)) - squares)
+
+
+def test_qr_23_has_the_golay_weight_distribution():
+    """QR(23) is the Golay code up to equivalence: same weight count (brute force)."""
+    from gf2codes._reference import brute_weight_distribution
+
+    assert brute_weight_distribution(F.quadratic_residue(23).G) == \
+        brute_weight_distribution(F.golay().G)
+
+
+@pytest.mark.parametrize("p,match", [(13, "5 modulo 8"), (15, "not prime"), (5, "at least 7")])
+def test_qr_errors(p, match):
+    with pytest.raises(ParameterError, match=match):
+        F.quadratic_residue(p)
+
+
+# --------------------------------------------------------------------- cyclic
+@pytest.mark.parametrize("n", [7, 9, 15, 6, 21])
+def test_cyclic_codes_are_cyclic(n):
+    """Every code from the factorisation of x^n - 1 is invariant under the cyclic shift;
+    the number of codes is prod(e_i + 1) - 1 (MacWilliams & Sloane ch. 7 section 5)."""
+    codes = F.cyclic_codes(n)
+    _, mults = galois.Poly.Degrees([n, 0]).factors()
+    assert len(codes) == math.prod(e + 1 for e in mults) - 1
+    seen = set()
+    for info in codes:
+        C = info.build()
+        assert C.k == info.k
+        assert np.all(C.contains(np.roll(C.G, 1, axis=1)))
+        seen.add(C)
+        if C.k <= 12:
+            _check_claims(C, brute_distance(C.G))
+    assert len(seen) == len(codes)  # distinct divisors give distinct codes
+
+
+def test_cyclic_notations_agree():
+    a = F.cyclic(23, "x^11+x^9+x^7+x^6+x^5+x+1")
+    b = F.cyclic(23, "0o5343")
+    c = F.cyclic(23, "0b101011100011")
+    d = F.cyclic(23, galois.Poly.Str("x^11 + x^9 + x^7 + x^6 + x^5 + x + 1"))
+    assert a == b == c == d
+    assert a.recipe == ({"family": "cyclic", "n": 23, "generator_polynomial": "0o5343"},)
+    assert brute_distance(a.G) == 7 and a.d_upper == 7
+
+
+def test_bch_bound_of_cyclic_code():
+    """The defining set of x^3 + x + 1 is {1, 2, 4}: BCH bound 3 (M&S ch. 7 Theorem 8)."""
+    assert F.cyclic(7, "x^3+x+1").d_lower == 3
+    assert F.bch_bound(7, [1, 2, 4]) == 3
+    assert F.bch_bound(15, [1, 2, 3, 4, 6, 8, 9, 12]) == 5
+
+
+@pytest.mark.parametrize("text,match", [
+    ("x^3+x^3+1", "appears twice"), ("y+1", "cannot read the term"), ("0o9", "octal"),
+    ("", "empty"),
+])
+def test_parse_polynomial_errors(text, match):
+    with pytest.raises(ParseError, match=match):
+        F.parse_polynomial(text)
+
+
+def test_cyclic_errors():
+    with pytest.raises(ParameterError, match="must divide x\\^23 - 1"):
+        F.cyclic(23, "x^11+x+1")
+    with pytest.raises(ParameterError, match="the code is \\{0\\}"):
+        F.cyclic(7, "x^7+1")
+
+
+# ------------------------------------------------------------ quasi-cyclic
+def test_double_circulant_and_quasi_cyclic():
+    """A [22, 11] pure double circulant code (A from the squares mod 11): parameters,
+    and the construction's bound against brute force."""
+    squares = {(i * i) % 11 for i in range(1, 11)}
+    row = "".join("1" if i in squares else "0" for i in range(11))
+    C = F.double_circulant(row)
+    assert (C.n, C.k, C.d_upper) == (22, 11, 1 + len(squares))
+    d = brute_distance(C.G)
+    _check_claims(C, d)
+    # quasi-cyclic: invariant under the simultaneous shift of each block
+    Q = F.quasi_cyclic(["1101000|1011100|1110010"], 7)
+    assert Q.n == 21
+    shifted = np.roll(Q.G.reshape(Q.k, 3, 7), 1, axis=2).reshape(Q.k, 21)
+    assert np.all(Q.contains(shifted))
+    _check_claims(Q, brute_distance(Q.G))
+    with pytest.raises(ParameterError, match="divisible by m = 7"):
+        F.quasi_cyclic(["10110"], 7)
+
+
+# ------------------------------------------------------------------ registry
+@pytest.mark.parametrize("name", list(F.FAMILIES))
+def test_every_family_example_builds_and_rebuilds(name):
+    fam = F.FAMILIES[name]
+    assert fam.description and fam.example.startswith(name)
+    assert main(["build", *_split(fam.example), "-o", os.devnull, "--format", "text"]) == 0
+    built = _build_from_example(fam)
+    assert rebuild(built.recipe) == built
+    assert rebuild(built.recipe).recipe == built.recipe
+    if built.k <= 16:
+        _check_claims(built, brute_distance(built.G))
+
+
+def _split(example: str) -> list[str]:
+    import shlex
+
+    return shlex.split(example)
+
+
+def _build_from_example(fam: F.Family) -> Code:
+    import argparse
+
+    from gf2codes.cli import _build
+
+    parser = argparse.ArgumentParser()
+    sub = parser.add_subparsers(dest="command")
+    _build.register(sub)
+    args = parser.parse_args(["build", *_split(fam.example)])
+    return fam.build(**{a.name: getattr(args, a.name) for a in fam.arguments})
+
+
+def test_deterministic():
+    assert F.bch(63, 11).G.tobytes() == F.bch(63, 11).G.tobytes()
+    assert F.quadratic_residue(47).G.tobytes() == F.quadratic_residue(47).G.tobytes()
+
+
+@pytest.mark.parametrize("call,match", [
+    (lambda: F.hamming(1), "'m' must be at least 2, not 1"),
+    (lambda: F.hamming(13), "'m' must be at most 12, not 13"),
+    (lambda: F.reed_muller(4, 3), "'r' must be at most 3, not 4"),
+    (lambda: F.reed_muller(-1, 3), "'r' must be at least 0, not -1"),
+    (lambda: F.repetition(0), "'n' must be at least 1, not 0"),
+    (lambda: F.double_circulant("01a"), "0s and 1s"),
+])
+def test_parameter_errors(call, match):
+    with pytest.raises(ParameterError, match=match):
+        call()
+
+
+# ------------------------------------------------------------------------ CLI
+def test_cli_build_prints_summary_and_matrix(capsys):
+    assert main(["build", "hamming", "3"]) == 0
+    out = capsys.readouterr().out
+    assert "[n, k] = [7, 4]" in out and "d = 3" in out
+    rows = [ln for ln in out.splitlines() if set(ln) <= {"0", "1"} and ln]
+    assert Code([[int(c) for c in r] for r in rows]) == F.hamming(3)
+
+
+def test_cli_bch_never_calls_designed_distance_exact(capsys):
+    assert main(["build", "bch", "127", "--designed", "21"]) == 0
+    out = capsys.readouterr().out
+    assert "[n, k] = [127, 64]" in out
+    assert "d ≥ 21" in out or "21 ≤ d ≤" in out
+    assert "d = 21" not in out
+
+
+def test_cli_build_list(capsys):
+    assert main(["build", "--list"]) == 0
+    out = capsys.readouterr().out
+    for name in F.FAMILIES:
+        assert f"\n{name}" in out
+    assert main(["build", "--list", "--json"]) == 0
+    listed = json.loads(capsys.readouterr().out)
+    assert [f["family"] for f in listed] == list(F.FAMILIES)
+
+
+def test_cli_build_json_and_file(tmp_path, capsys):
+    out = tmp_path / "rm.json"
+    assert main(["build", "reed-muller", "2", "6", "-o", str(out)]) == 0
+    assert "wrote" in capsys.readouterr().out
+    rec = read_code(out)
+    assert rec.code == F.reed_muller(2, 6) and rec.code.recipe == F.reed_muller(2, 6).recipe
+    assert (rec.d_lower, rec.d_upper) == (16, 16)
+    assert main(["build", "golay", "--json"]) == 0
+    obj = json.loads(capsys.readouterr().out)
+    assert (obj["n"], obj["k"], obj["d_lower"], obj["d_upper"]) == (23, 12, 7, 7)
+
+
+def test_cli_build_verify(capsys):
+    pytest.importorskip("gf2codes.cli._verify", reason="the lead's verify command is missing")
+    assert main(["build", "golay", "--verify", "--json"]) == 0
+    obj = json.loads(capsys.readouterr().out)
+    assert "7" in json.dumps(obj)
+
+
+@pytest.mark.parametrize("argv,match", [
+    (["build", "cyclic", "23", "x^11+x+1"], "must divide x^23 - 1"),
+    (["build", "qr", "13"], "congruent to 1 or 7 modulo 8"),
+    (["build", "bch", "64", "--designed", "3"], "2^m - 1"),
+    (["build"], "--list"),
+])
+def test_cli_build_bad_input(argv, match, capsys):
+    assert main(argv) == 2
+    err = capsys.readouterr().err.strip()
+    assert len(err.splitlines()) == 1 and match in err
+
+
+def test_cli_subprocess_bad_input_exits_2_with_one_line():
+    env = {**os.environ, "PYTHONPATH": "/work/main"}
+    proc = subprocess.run([sys.executable, "-m", "gf2codes", "build", "reed-muller", "5", "3"],
+                          capture_output=True, text=True, env=env, timeout=120)
+    assert proc.returncode == 2
+    assert proc.stdout == ""
+    lines = proc.stderr.strip().splitlines()
+    assert lines == ["gf2codes build: error: Argument 'r' must be at most 3, not 5."]
+    assert "Traceback" not in proc.stderr
