@@ -50,7 +50,7 @@ import numpy as np
 
 from . import _kernels, linalg
 from .code import Code
-from .exceptions import ParameterError, TooExpensiveError, check_int
+from .exceptions import ClaimError, ParameterError, TooExpensiveError, check_int
 
 __all__ = [
     "DistanceResult",
@@ -609,16 +609,17 @@ def has_distance_at_least(code: Code, target: int, *, time_limit: float | None =
 
 
 def _check_claims(code: Code, lower: int, upper: int) -> None:
-    """A construction's claimed bounds must agree with what was proved."""
+    """Bounds stated for the code (by its construction or its file) must agree with proof."""
+    label = f"{code.name!r} " if code.name else ""
     if code.d_lower is not None and upper < code.d_lower:
-        raise AssertionError(
-            f"internal error: the construction of {code!r} claims d >= {code.d_lower} but a "
-            f"codeword of weight {upper} exists; please report this."
+        raise ClaimError(
+            f"the code {label}[{code.n},{code.k}] is stated to have d >= "
+            f"{code.d_lower}, but it has a codeword of weight {upper}: the statement is wrong."
         )
     if code.d_upper is not None and lower > code.d_upper:
-        raise AssertionError(
-            f"internal error: the construction of {code!r} claims d <= {code.d_upper} but "
-            f"d >= {lower} was proved; please report this."
+        raise ClaimError(
+            f"the code {label}[{code.n},{code.k}] is stated to have d <= "
+            f"{code.d_upper}, but d >= {lower} is proved: the statement is wrong."
         )
 
 

@@ -17,6 +17,7 @@ __all__ = [
     "ParameterError",
     "CatalogError",
     "TooExpensiveError",
+    "ClaimError",
     "check_int",
 ]
 
@@ -53,6 +54,14 @@ class TooExpensiveError(Gf2CodesError, RuntimeError):
         super().__init__(message)
         self.work = work
         self.seconds = seconds
+
+
+class ClaimError(Gf2CodesError, ValueError):
+    """A stated bound on a code's minimum distance is contradicted by proof.
+
+    The bound came from the code's construction or from the file it was read from;
+    the message says which value was claimed and what was proved.
+    """
 
 
 def check_int(name: str, value: object, *, minimum: int | None = None,

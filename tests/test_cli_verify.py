@@ -129,3 +129,11 @@ def test_module_entry_point_runs_the_demo():
     r = _run("verify", str(DEMO), "--json")
     assert r.returncode == 0, r.stderr
     assert json.loads(r.stdout)["d"] == 4
+
+
+def test_a_wrong_statement_in_the_file_is_reported(tmp_path, capsys, hamming74):
+    f = tmp_path / "claims.json"
+    write_code(hamming74, f, d=4)  # the [7,4] Hamming code has d = 3, not 4
+    out = _json(capsys, str(f))
+    assert out["d"] == 3 and "d = 4" in out["stated_wrong"]
+    assert any("contradicts" in note for note in out["notes"])

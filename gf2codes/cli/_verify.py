@@ -62,9 +62,11 @@ def run(args: argparse.Namespace) -> int:
     if args.workers is not None:
         check_int("--workers", args.workers, minimum=1)
     record = read_code(args.file, parity_check=args.parity_check)
+    stated = {key: getattr(record, key) for key in ("d", "d_lower", "d_upper")
+              if getattr(record, key) is not None}
     return report(record.code, as_json=args.json, time_limit=args.time_limit,
                   method=args.method, target_d=args.target_d, source=args.file,
-                  seed=args.seed, workers=args.workers)
+                  seed=args.seed, workers=args.workers, stated=stated)
 
 
 def _distance(code: Code, method: str, time_limit: float | None, target_d: int | None,
@@ -85,9 +87,13 @@ def _distance(code: Code, method: str, time_limit: float | None, target_d: int |
 
 
 def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact",
-            target_d: int | None = None, seed: int = 0,
-            workers: int | None = None) -> dict[str, Any]:
-    """Everything ``verify`` reports, as a JSON-ready dict."""
+            target_d: int | None = None, seed: int = 0, workers: int | None = None,
+            stated: dict[str, int] | None = None) -> dict[str, Any]:
+    """Everything ``verify`` reports, as a JSON-ready dict.
+
+    ``stated`` holds what the input file said about d (keys ``d``, ``d_lower``,
+    ``d_upper``); a statement that the proof contradicts is reported, not trusted.
+    """
     start = time.perf_counter()
     res = _distance(code, method, time_limit, target_d, seed, workers)
     notes: list[str] = []
@@ -132,11 +138,28 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
         "dropped_rows": code.dropped_rows,
         "notes": notes,
     }
+    out["stated_wrong"] = _contradicted(stated or {}, res)
+    if out["stated_wrong"]:
+        notes.append("the input file states " + ", ".join(out["stated_wrong"]) +
+                     ", which the proof contradicts: the statement is wrong")
     if target_d is not None:
         out["target_d"] = target_d
         out["meets_target"] = res.at_least(target_d)
     out.update(_verdict(code, res))
     return out
+
+
+def _contradicted(stated: dict[str, int], res: DistanceResult) -> list[str]:
+    """The statements about d that the proved interval refutes, as text."""
+    wrong = []
+    d, lo, hi = stated.get("d"), stated.get("d_lower"), stated.get("d_upper")
+    if d is not None and not res.lower <= d <= res.upper:
+        wrong.append(f"d = {d}")
+    if lo is not None and lo > res.upper:
+        wrong.append(f"d >= {lo}")
+    if hi is not None and hi < res.lower:
+        wrong.append(f"d <= {hi}")
+    return wrong
 
 
 def _exact_from_distribution(code: Code, res: DistanceResult, d: int, seed: int
@@ -173,10 +196,11 @@ def _verdict(code: Code, res: DistanceResult) -> dict[str, Any]:
 
 def report(code: Code, *, as_json: bool = False, time_limit: float | None = None,
            method: str = "exact", target_d: int | None = None, source: str | None = None,
-           seed: int = 0, workers: int | None = None) -> int:
+           seed: int = 0, workers: int | None = None,
+           stated: dict[str, int] | None = None) -> int:
     """Verify ``code`` and print the report (table or JSON). Returns the exit status."""
     info = analyse(code, time_limit=time_limit, method=method, target_d=target_d, seed=seed,
-                   workers=workers)
+                   workers=workers, stated=stated)
     if as_json:
         if source:
             info = {"source": source, **info}
