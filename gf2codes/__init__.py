@@ -10,12 +10,13 @@ The public API is re-exported here from the topic modules:
 * :mod:`gf2codes.families` — named constructions (Hamming, Reed–Muller, Golay, BCH, ...)
 * :mod:`gf2codes.derive` — new codes from old (puncture, shorten, extend, ...)
 * :mod:`gf2codes.formats` — matrix files and code records
+* :mod:`gf2codes.parallel` — executors: in-process, process pool, Dask
 * :mod:`gf2codes.exceptions` — the error hierarchy
 """
 
 from __future__ import annotations
 
-from . import bounds, derive, distance, exceptions, families, formats, linalg, weights
+from . import bounds, derive, distance, exceptions, families, formats, linalg, parallel, weights
 from ._version import __version__
 from .bounds import *  # noqa: F403
 from .code import *  # noqa: F403
@@ -25,10 +26,12 @@ from .exceptions import *  # noqa: F403
 from .families import *  # noqa: F403
 from .formats import *  # noqa: F403
 from .linalg import *  # noqa: F403
+from .parallel import *  # noqa: F403
 from .weights import *  # noqa: F403
 
 __all__ = ["__version__"]
-for _module in (bounds, derive, distance, exceptions, families, formats, linalg, weights):
+for _module in (bounds, derive, distance, exceptions, families, formats, linalg, parallel,
+                weights):
     __all__ += list(_module.__all__)
 __all__ += ["Code"]  # noqa: F405 - from .code
 del _module

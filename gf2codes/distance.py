@@ -51,6 +51,7 @@ import numpy as np
 from . import _kernels, linalg
 from .code import Code
 from .exceptions import ClaimError, ParameterError, TooExpensiveError, check_int
+from .parallel import Executor
 
 __all__ = [
     "DistanceResult",
@@ -418,8 +419,68 @@ def _enumerate_level(m: _InfoSetMatrix, w: int, sh: _Shared, stop_at: int, lower
     return all(f.result() for f in futures)
 
 
+# ------------------------------------------- the same levels on other processes or machines
+#: A level is sent to the executor (other processes, a Dask cluster) only when it has at
+#: least this many codewords; smaller ones are cheaper to do here.
+_REMOTE_MIN_WORK = 2 * 10**9
+
+# Per worker process: the information-set matrices and level tasks of the codes seen
+# lately (rebuilt deterministically from the generator, so every process agrees).
+_WORKER_CACHE: dict[bytes, tuple[list[_InfoSetMatrix], dict[tuple[int, int], list[_Task]]]] = {}
+
+
+def _remote_level_task(payload: tuple) -> tuple[int, bool, int, int, bytes | None]:
+    """Run task ``index`` of level ``w`` of matrix ``j`` of the code in ``payload``.
+
+    Returns ``(index, complete, visited, best_weight, best_word_bytes)``.
+    """
+    key, rows_bytes, n, k, j, w, index, stop_at, deadline = payload
+    if key not in _WORKER_CACHE:
+        if len(_WORKER_CACHE) >= 2:
+            _WORKER_CACHE.clear()
+        rows = np.frombuffer(rows_bytes, dtype=np.uint64).reshape(k, -1)
+        _WORKER_CACHE[key] = (_information_sets(Code.from_packed(rows, n)), {})
+    mats, tasks = _WORKER_CACHE[key]
+    if (j, w) not in tasks:
+        tasks.clear()
+        tasks[(j, w)] = _level_tasks(mats[j], w, split=True)
+    clock = _Clock(None, None)
+    if deadline is not None:
+        clock.deadline = clock.start + max(0.0, deadline - time.time())
+    sh = _Shared(clock, _Best(n))
+    complete = _run_task(tasks[(j, w)][index], mats[j], sh, stop_at, 0)
+    word = None if sh.best.word is None else sh.best.word.tobytes()
+    return index, complete, clock.done, int(sh.best.weight), word
+
+
+def _enumerate_level_remote(code: Code, mats: list[_InfoSetMatrix], j: int, w: int,
+                            sh: _Shared, stop_at: int, lower: int, executor) -> bool:
+    """Like :func:`_enumerate_level`, with the tasks run by ``executor``."""
+    n_tasks = len(_level_tasks(mats[j], w, split=True))
+    rows = np.ascontiguousarray(code.packed_generator)
+    key = rows.tobytes() + n_tasks.to_bytes(8, "little")
+    deadline = None
+    if sh.clock.deadline is not None:
+        deadline = time.time() + (sh.clock.deadline - time.perf_counter())
+    payloads = [(key, rows.tobytes(), code.n, code.k, j, w, i, stop_at, deadline)
+                for i in range(n_tasks)]
+    complete = True
+    results = executor.run_unordered(_remote_level_task, payloads)
+    try:
+        for _i, (_idx, done, visited, wt, word) in results:
+            if wt < sh.best.weight and word is not None:
+                sh.best.offer(wt, np.frombuffer(word, dtype=np.uint64))
+            sh.clock.tick(visited, lower, sh.best.weight)
+            complete = complete and done
+            if sh.best.weight <= stop_at or sh.clock.expired():
+                return False
+    finally:
+        results.close()  # cancels what has not started
+    return complete
+
+
 def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
-               start_lower: int, workers: int) -> tuple[int, str | None]:
+               start_lower: int, workers: int, executor=None) -> tuple[int, str | None]:
     """Run Brouwer–Zimmermann; return (proved lower bound, reason for stopping or None)."""
     mats = _information_sets(code)
     divisor = code.weight_divisor
@@ -450,7 +511,11 @@ def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
                 current_w = w
                 refresh_total()
             stop_at = lower if target is None else max(lower, target - 1)
-            complete = _enumerate_level(mats[j], w, sh, stop_at, lower, pool)
+            if executor is not None and math.comb(code.k, w) >= _REMOTE_MIN_WORK:
+                complete = _enumerate_level_remote(code, mats, j, w, sh, stop_at, lower,
+                                                   executor)
+            else:
+                complete = _enumerate_level(mats[j], w, sh, stop_at, lower, pool)
             sh.stop = False
             reason = settled()
             if reason:
@@ -490,6 +555,7 @@ def minimum_distance(
     max_work: int | None = DEFAULT_MAX_WORK,
     seed: int | np.random.Generator | None = 0,
     workers: int | None = 1,
+    executor: Executor | None = None,
 ) -> DistanceResult:
     """Prove the minimum distance of ``code`` (or as much as the time limit allows).
 
@@ -515,6 +581,12 @@ def minimum_distance(
         Threads for the Brouwer–Zimmermann enumeration (the kernels release the GIL);
         ``None`` means one per core. The proved result does not depend on it; which
         of several lightest codewords becomes the witness may.
+    executor : gf2codes.parallel.Executor, optional
+        Runs the large Brouwer–Zimmermann levels as independent tasks on other
+        processes or a Dask cluster (small levels stay here, on ``workers`` threads).
+        A level's lower bound is credited only when every one of its tasks completed,
+        so the proved result is the one a serial run proves; once a task finds a
+        codeword that settles the question the tasks not yet started are cancelled.
 
     Returns
     -------
@@ -581,7 +653,8 @@ def minimum_distance(
             else:
                 lower, stopped = start_lower, "time limit"
         else:
-            lower, reason = _bz_search(code, clock, best, target, start_lower, workers)
+            lower, reason = _bz_search(code, clock, best, target, start_lower, workers,
+                                       executor)
             stopped = None if reason == "exact" else reason
     except KeyboardInterrupt:
         lower, stopped = start_lower, "interrupted"

@@ -9,7 +9,7 @@ import pytest
 import gf2codes
 
 MODULES = ["code", "linalg", "distance", "weights", "bounds", "families", "derive", "formats",
-           "exceptions"]
+           "parallel", "exceptions"]
 
 
 @pytest.mark.parametrize("name", MODULES)

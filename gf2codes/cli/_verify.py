@@ -51,6 +51,13 @@ def register(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--seed", type=int, default=0, help="seed for the randomised parts")
     p.add_argument("--workers", type=int, metavar="N",
                    help="threads for the exact enumeration (default: one per core)")
+    p.add_argument("--pool", type=int, metavar="N",
+                   help="run the large enumeration levels on a local pool of N processes")
+    p.add_argument("--scheduler", metavar="ADDRESS",
+                   help="run the large enumeration levels on a running Dask cluster "
+                        "(e.g. tcp://10.0.0.5:8786; needs gf2codes[dask])")
+    p.add_argument("--dask-local", type=int, metavar="N",
+                   help="start a local Dask cluster of N worker processes for the run")
     add_json_flag(p)
 
 
@@ -64,19 +71,30 @@ def run(args: argparse.Namespace) -> int:
     record = read_code(args.file, parity_check=args.parity_check)
     stated = {key: getattr(record, key) for key in ("d", "d_lower", "d_upper")
               if getattr(record, key) is not None}
-    return report(record.code, as_json=args.json, time_limit=args.time_limit,
-                  method=args.method, target_d=args.target_d, source=args.file,
-                  seed=args.seed, workers=args.workers, stated=stated)
+    executor = None
+    if args.scheduler is not None or args.dask_local is not None or args.pool is not None:
+        from ..parallel import ProcessPool, make_executor
+
+        executor = (ProcessPool(args.pool) if args.pool is not None else
+                    make_executor(scheduler=args.scheduler, dask_local=args.dask_local))
+    try:
+        return report(record.code, as_json=args.json, time_limit=args.time_limit,
+                      method=args.method, target_d=args.target_d, source=args.file,
+                      seed=args.seed, workers=args.workers, stated=stated, executor=executor)
+    finally:
+        if executor is not None:
+            executor.close()
 
 
 def _distance(code: Code, method: str, time_limit: float | None, target_d: int | None,
-              seed: int, workers: int | None) -> DistanceResult:
+              seed: int, workers: int | None, executor=None) -> DistanceResult:
     if method == "fast":
         return quick_distance(code, time_limit=time_limit or 2.0, seed=seed)
     with ProgressBar("proving d") as bar:
         try:
             return minimum_distance(code, time_limit=time_limit, progress=bar,
-                                    target=target_d, seed=seed, workers=workers)
+                                    target=target_d, seed=seed, workers=workers,
+                                    executor=executor)
         except TooExpensiveError as exc:
             raise TooExpensiveError(
                 f"proving d of this [{code.n},{code.k}] code needs about {exc.work:.2g} "
@@ -88,14 +106,14 @@ def _distance(code: Code, method: str, time_limit: float | None, target_d: int |
 
 def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact",
             target_d: int | None = None, seed: int = 0, workers: int | None = None,
-            stated: dict[str, int] | None = None) -> dict[str, Any]:
+            stated: dict[str, int] | None = None, executor=None) -> dict[str, Any]:
     """Everything ``verify`` reports, as a JSON-ready dict.
 
     ``stated`` holds what the input file said about d (keys ``d``, ``d_lower``,
     ``d_upper``); a statement that the proof contradicts is reported, not trusted.
     """
     start = time.perf_counter()
-    res = _distance(code, method, time_limit, target_d, seed, workers)
+    res = _distance(code, method, time_limit, target_d, seed, workers, executor)
     notes: list[str] = []
     # Weight distribution: only when it is affordable within what is left.
     cost = weight_enumeration_cost(code)
@@ -197,10 +215,10 @@ def _verdict(code: Code, res: DistanceResult) -> dict[str, Any]:
 def report(code: Code, *, as_json: bool = False, time_limit: float | None = None,
            method: str = "exact", target_d: int | None = None, source: str | None = None,
            seed: int = 0, workers: int | None = None,
-           stated: dict[str, int] | None = None) -> int:
+           stated: dict[str, int] | None = None, executor=None) -> int:
     """Verify ``code`` and print the report (table or JSON). Returns the exit status."""
     info = analyse(code, time_limit=time_limit, method=method, target_d=target_d, seed=seed,
-                   workers=workers, stated=stated)
+                   workers=workers, stated=stated, executor=executor)
     if as_json:
         if source:
             info = {"source": source, **info}

@@ -1,0 +1,136 @@
+"""Executors and the distance proof on other processes: a real process pool and a real
+Dask LocalCluster (two workers) give the serial answers, also when a worker dies."""
+
+from __future__ import annotations
+
+import os
+import signal
+import threading
+import time
+
+import numpy as np
+import pytest
+
+from gf2codes import distance, families
+from gf2codes.code import Code
+from gf2codes.distance import minimum_distance
+from gf2codes.exceptions import ParameterError
+from gf2codes.parallel import DaskCluster, InProcess, ProcessPool, make_executor
+
+# Small levels normally stay in-process; send everything above this many codewords out.
+REMOTE = 10**6
+
+
+@pytest.fixture
+def remote_levels(monkeypatch):
+    monkeypatch.setattr(distance, "_REMOTE_MIN_WORK", REMOTE)
+
+
+def _square(x: int) -> int:
+    return x * x
+
+
+def _slow_square(x: int) -> int:
+    time.sleep(0.3)
+    return x * x
+
+
+def test_executors_run_every_task():
+    for ex in (InProcess(), ProcessPool(2)):
+        with ex:
+            assert sorted(ex.run_unordered(_square, list(range(7)))) == [
+                (i, i * i) for i in range(7)]
+
+
+def test_make_executor_choices():
+    assert isinstance(make_executor(workers=1), InProcess)
+    assert isinstance(make_executor(workers=2), ProcessPool)
+    with pytest.raises(ParameterError, match="not both"):
+        make_executor(scheduler="tcp://127.0.0.1:1", dask_local=2)
+
+
+@pytest.fixture(scope="module")
+def dask_cluster():
+    ex = DaskCluster(local_workers=2)
+    yield ex
+    ex.close()
+
+
+def _codes():
+    rng = np.random.default_rng(11)
+    yield families.bch(63, 11)  # [63,36,11]: MacWilliams & Sloane, appendix A
+    yield families.quadratic_residue(47)  # [47,24,11]
+    yield Code(rng.integers(0, 2, size=(30, 70), dtype=np.uint8))
+
+
+def test_process_pool_and_dask_agree_with_serial(remote_levels, dask_cluster):
+    with ProcessPool(2) as pool:
+        for C in _codes():
+            serial = minimum_distance(C)
+            for ex in (pool, dask_cluster):
+                r = minimum_distance(C, executor=ex)
+                assert r.exact and r.d == serial.d
+                assert r.witness.sum() == r.d and C.contains(r.witness)
+
+
+def _bch_target():
+    # BCH [127,64] has d = 21 (MacWilliams & Sloane, appendix A); settling d >= 16 takes
+    # a few billion codewords, long enough to kill a worker in the middle.
+    return families.bch(127, 21), 16
+
+
+def test_killed_pool_worker_is_replaced_and_its_task_rerun(remote_levels):
+    C, target = _bch_target()
+    with ProcessPool(2) as pool:
+        def killer():
+            time.sleep(1.5)
+            procs = list((pool._pool._processes or {}).values()) if pool._pool else []
+            if procs:
+                os.kill(procs[0].pid, signal.SIGKILL)
+                killed.append(procs[0].pid)
+
+        killed: list[int] = []
+        t = threading.Thread(target=killer)
+        t.start()
+        start = time.perf_counter()
+        r = minimum_distance(C, target=target, executor=pool)
+        elapsed = time.perf_counter() - start
+        t.join()
+    assert killed, "the test did not manage to kill a worker"
+    assert elapsed > 1.5, "the run ended before the worker was killed"
+    assert r.at_least(target) is True and r.lower >= target
+
+
+def test_killed_dask_worker_task_is_rerun(remote_levels, dask_cluster):
+    C, target = _bch_target()
+    client = dask_cluster.client
+
+    pids = client.run(os.getpid)  # worker address -> process id
+    killed: list[int] = []
+
+    def killer():
+        time.sleep(1.5)
+        pid = sorted(pids.values())[0]
+        os.kill(pid, signal.SIGKILL)
+        killed.append(pid)
+
+    t = threading.Thread(target=killer)
+    t.start()
+    start = time.perf_counter()
+    r = minimum_distance(C, target=target, executor=dask_cluster)
+    elapsed = time.perf_counter() - start
+    t.join()
+    assert killed and elapsed > 1.5, "the worker was not killed during the run"
+    assert r.at_least(target) is True and r.lower >= target
+    # the nanny brings the worker back
+    client.wait_for_workers(2, timeout=60)
+
+
+def test_time_limit_is_honoured_on_workers(remote_levels):
+    C, _ = _bch_target()
+    with ProcessPool(2) as pool:
+        t = time.perf_counter()
+        r = minimum_distance(C, time_limit=2.0, executor=pool)
+        elapsed = time.perf_counter() - t
+    assert not r.exact and r.lower <= 21 <= r.upper
+    assert elapsed < 30  # generous: spawning workers takes a few seconds on a loaded machine
