@@ -240,7 +240,8 @@ def _gray_search(code: Code, clock: _Clock, best: _Best, stop_at: int) -> bool:
         g = stop
         clock.tick(visited, 0, best.weight)
         if best.weight <= stop_at:
-            return g >= outer
+            # The kernel may have stopped inside the block: never claim completeness.
+            return False
         if g < outer and clock.expired():
             return False
     return True
@@ -526,6 +527,9 @@ def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
             reason = settled()
             if reason:
                 return lower, reason
+    except KeyboardInterrupt:
+        # Keep what is proved: the bound of the last completed level, the best word.
+        return lower, "interrupted"
     finally:
         if pool is not None:
             pool.shutdown(wait=True)
@@ -642,23 +646,23 @@ def minimum_distance(
         )
     clock.total = cost
     stopped: str | None
-    try:
-        if engine == "gray":
-            stop_at = start_lower if target is None else max(start_lower, target - 1)
+    if engine == "gray":
+        stop_at = start_lower if target is None else max(start_lower, target - 1)
+        try:
             complete = _gray_search(code, clock, best, stop_at)
-            if complete or best.weight <= start_lower:
-                lower, stopped = best.weight, None
-            elif target is not None and best.weight < target:
-                lower, stopped = start_lower, "below target"
-            else:
-                lower, stopped = start_lower, "time limit"
+        except KeyboardInterrupt:
+            complete, interrupted = False, True
         else:
-            lower, reason = _bz_search(code, clock, best, target, start_lower, workers,
-                                       executor)
-            stopped = None if reason == "exact" else reason
-    except KeyboardInterrupt:
-        lower, stopped = start_lower, "interrupted"
-        engine += " (interrupted)"
+            interrupted = False
+        if complete or best.weight <= start_lower:
+            lower, stopped = best.weight, None
+        elif target is not None and best.weight < target:
+            lower, stopped = start_lower, "below target"
+        else:
+            lower, stopped = start_lower, "interrupted" if interrupted else "time limit"
+    else:
+        lower, reason = _bz_search(code, clock, best, target, start_lower, workers, executor)
+        stopped = None if reason == "exact" else reason
     lower = min(lower, best.weight)
     _check_claims(code, lower, best.weight)
     return DistanceResult(

@@ -99,6 +99,35 @@ def test_target_test_agrees_with_distance(seed, target):
     assert has_distance_at_least(C, target) == (d >= target)
 
 
+@given(st.integers(0, 2**32 - 1))
+def test_gray_engine_stopping_early_never_claims_completeness(seed):
+    # Regression test: a target run that stops at the first light codeword inside the
+    # last block must not report the whole code as enumerated (that would turn the
+    # weight of an arbitrary light codeword into a "proved" d).
+    from gf2codes.distance import _Best, _Clock, _gray_search
+
+    C = _random_code(seed)
+    d = brute_distance(C.G)
+    best = _Best(C.n)
+    complete = _gray_search(C, _Clock(None, None), best, stop_at=C.n)
+    assert not complete and d <= best.weight
+    r = minimum_distance(C, method="gray", target=C.n + 1)
+    assert r.lower <= d <= r.upper and r.at_least(C.n + 1) is False
+
+
+def test_interrupt_keeps_the_proved_interval():
+    C = bch(127, 64)
+
+    def interrupt(done, total, info):
+        if done > 2 * 10**8:
+            raise KeyboardInterrupt
+
+    r = minimum_distance(C, progress=interrupt, max_work=None)
+    # BCH [127,64] has d = 21 (MacWilliams & Sloane, appendix A).
+    assert r.stopped == "interrupted" and not r.exact
+    assert 1 < r.lower <= 21 <= r.upper and C.contains(r.witness)
+
+
 def test_published_values(golay23, golay24, hamming74):
     # [7,4,3] Hamming, [23,12,7] and [24,12,8] Golay: MacWilliams & Sloane (1977),
     # ch. 1 section 2 and ch. 2 section 6.

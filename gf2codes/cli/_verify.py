@@ -58,10 +58,14 @@ def register(sub: argparse._SubParsersAction) -> None:
                         "(e.g. tcp://10.0.0.5:8786; needs gf2codes[dask])")
     p.add_argument("--dask-local", type=int, metavar="N",
                    help="start a local Dask cluster of N worker processes for the run")
+    p.add_argument("--plot", metavar="FILE.png",
+                   help="also draw the weight distribution as bars into an image file")
     add_json_flag(p)
 
 
 def run(args: argparse.Namespace) -> int:
+    if getattr(args, "plot", None):
+        return _run_and_plot(args)
     if args.time_limit is not None and not args.time_limit > 0:
         raise ParameterError(f"Argument '--time-limit' must be positive, not {args.time_limit}.")
     if args.target_d is not None:
@@ -84,6 +88,24 @@ def run(args: argparse.Namespace) -> int:
     finally:
         if executor is not None:
             executor.close()
+
+
+def _run_and_plot(args: argparse.Namespace) -> int:
+    """``verify --plot FILE``: the report, then the weight distribution drawn as bars."""
+    from ..plots import require_matplotlib, save_weight_distribution_plot
+
+    require_matplotlib()
+    path, args.plot = args.plot, None
+    status = run(args)
+    code = read_code(args.file, parity_check=args.parity_check).code
+    if weight_enumeration_cost(code) > DEFAULT_MAX_ENUMERATION:
+        raise TooExpensiveError(f"--plot: the weight distribution of this [{code.n},{code.k}] "
+                                "code is too expensive to count.")
+    out = save_weight_distribution_plot(
+        weight_distribution(code), path,
+        title=f"Weight distribution of the [{code.n}, {code.k}] code ({args.file})")
+    err_console.print(f"wrote {escape(str(out))}")
+    return status
 
 
 def _distance(code: Code, method: str, time_limit: float | None, target_d: int | None,
@@ -119,7 +141,10 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
     cost = weight_enumeration_cost(code)
     left = None if time_limit is None else max(0.0, time_limit - (time.perf_counter() - start))
     dist = None
-    if cost > DEFAULT_MAX_ENUMERATION or (left is not None and cost / _WEIGHT_RATE > left):
+    if res.stopped == "interrupted":
+        notes.append("interrupted (Ctrl-C): the proved interval so far is reported; the "
+                     "weight distribution was skipped")
+    elif cost > DEFAULT_MAX_ENUMERATION or (left is not None and cost / _WEIGHT_RATE > left):
         notes.append(
             f"weight distribution not computed: it needs 2^{min(code.k, code.n - code.k)} "
             "codewords" + ("" if left is None else " and the time limit is too short")
@@ -219,13 +244,14 @@ def report(code: Code, *, as_json: bool = False, time_limit: float | None = None
     """Verify ``code`` and print the report (table or JSON). Returns the exit status."""
     info = analyse(code, time_limit=time_limit, method=method, target_d=target_d, seed=seed,
                    workers=workers, stated=stated, executor=executor)
+    status = 130 if info["stopped"] == "interrupted" else 0
     if as_json:
         if source:
             info = {"source": source, **info}
         print_json(info)
-        return 0
+        return status
     _print_report(info, code, source)
-    return 0
+    return status
 
 
 _METHOD_WORDS = {
