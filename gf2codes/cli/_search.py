@@ -1,0 +1,175 @@
+"""``gf2codes search``: look for the best binary linear code with two given parameters.
+
+Three modes, chosen by which two options are given:
+
+* ``--k K --d D``: the shortest code (least ``n``);
+* ``--n N --k K``: the greatest proved distance;
+* ``--n N --d D``: the greatest dimension.
+
+The result says whether it is optimal (the bounds rule out anything better) or only
+the best found. Exit status: 0 when the search ended on its own or at the time limit,
+130 when it was interrupted with Ctrl-C (the best proved code found so far is still
+printed, and written with ``-o``), 2 for bad input.
+
+With ``gf2codes.catalog`` available, the best catalog entry for the target is a
+starting point and the winner is saved there (``--catalog PATH``, ``--no-catalog``).
+"""
+
+from __future__ import annotations
+
+import sys
+
+from rich.table import Table
+
+from .. import formats
+from .. import search as S
+from ..exceptions import Gf2CodesError, ParameterError
+from ..search._driver import validate
+from ._common import ProgressBar, add_json_flag, console, err_console, print_json
+
+try:
+    from .. import catalog
+except ImportError:  # the catalog module is optional (written separately)
+    catalog = None
+
+__all__ = ["register", "run"]
+
+
+def register(subparsers) -> None:
+    p = subparsers.add_parser(
+        "search",
+        help="search for the shortest code for (k, d), or the best d or k",
+        description="Search for binary linear codes. Give two of --n, --k, --d: --k --d "
+                    "finds the shortest length, --n --k the greatest distance, --n --d the "
+                    "greatest dimension. Exit 130 after Ctrl-C (the best code found is "
+                    "still reported).",
+    )
+    p.add_argument("--n", metavar="N", help="length")
+    p.add_argument("--k", metavar="K", help="dimension (number of data bits)")
+    p.add_argument("--d", metavar="D", help="minimum distance required")
+    p.add_argument("--time-limit", metavar="S", default="60",
+                   help="seconds to search (default 60); the winner's proof comes after")
+    p.add_argument("--max-steps", metavar="N", default=None,
+                   help="stop after N steps of strategy work (reproducible on any machine)")
+    p.add_argument("--seed", metavar="S", default="0", help="random seed (default 0)")
+    p.add_argument("--strategy", metavar="NAME", action="append", default=None,
+                   help="use this strategy (repeatable; default all: "
+                        + ", ".join(S.STRATEGIES) + ")")
+    p.add_argument("-o", "--output", metavar="FILE", default=None,
+                   help="write the code found: a JSON code record for *.json, "
+                        "a generator matrix as text otherwise")
+    p.add_argument("--catalog", metavar="PATH", default=None,
+                   help="catalog database to start from and save to")
+    p.add_argument("--no-catalog", action="store_true",
+                   help="neither read nor write the catalog")
+    add_json_flag(p)
+
+
+def _int(name: str, text: str) -> int:
+    try:
+        return int(text, 10)
+    except (TypeError, ValueError):
+        raise ParameterError(f"Argument {name!r} must be an integer, not {text!r}.") from None
+
+
+def _float(name: str, text: str) -> float:
+    try:
+        value = float(text)
+    except (TypeError, ValueError):
+        raise ParameterError(f"Argument {name!r} must be a number, not {text!r}.") from None
+    if not value > 0:
+        raise ParameterError(f"Argument {name!r} must be positive, not {text}.")
+    return value
+
+
+def _open_catalog(args):
+    if args.no_catalog or catalog is None:
+        return None
+    try:
+        return catalog.open_catalog(args.catalog)
+    except Gf2CodesError:
+        if args.catalog is not None:  # asked for by name: its errors are the user's
+            raise
+        return None  # no usable default catalog: search without one
+
+
+def run(args) -> int:
+    given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
+    time_limit = _float("time_limit", args.time_limit)
+    seed = _int("seed", args.seed)
+    max_steps = None if args.max_steps is None else _int("max_steps",
+                                                              args.max_steps)
+    strategies = S.resolve_strategies(args.strategy)
+    if given == {"k", "d"}:
+        mode, kw = "length", {"k": _int("k", args.k), "d": _int("d", args.d)}
+    elif given == {"n", "k"}:
+        mode, kw = "distance", {"n": _int("n", args.n), "k": _int("k", args.k)}
+    elif given == {"n", "d"}:
+        mode, kw = "dimension", {"n": _int("n", args.n), "d": _int("d", args.d)}
+    else:
+        raise ParameterError(
+            "Arguments must be exactly two of --n, --k, --d, not "
+            + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
+        )
+    func = {"length": S.search_length, "distance": S.search_distance,
+            "dimension": S.search_dimension}[mode]
+    # validate before touching the catalog
+    validate(mode, kw.get("n"), kw.get("k"), kw.get("d"), time_limit, max_steps)
+
+    cat = _open_catalog(args)
+    start = []
+    interrupted = False
+    try:
+        if cat is not None:
+            entry = cat.best(**kw)
+            if entry is not None:
+                start.append(entry.code)
+
+        def save(code, d, info):
+            if cat is not None and info.get("exact"):
+                cat.add(code, d=d, proved=True, recipe=list(code.recipe) or None,
+                        source="search", seed=info.get("seed"))
+
+        label = "search " + " ".join(f"{key}={val}" for key, val in kw.items())
+        with ProgressBar(label, delay=1.0) as bar:
+            result = func(*kw.values(), time_limit=time_limit, max_steps=max_steps,
+                          seed=seed, strategies=strategies, start=start, progress=bar,
+                          on_winner=save)
+        interrupted = result.stopped == "interrupted"
+    finally:
+        if cat is not None:
+            cat.close()
+
+    if args.output:
+        formats.write_code(result.code, args.output, d=result.d,
+                           d_lower=result.d_lower, strategy=result.strategy,
+                           seed=result.seed)
+    if args.json:
+        print_json(result.to_dict())
+    else:
+        _print(result)
+    if interrupted:
+        err_console.print("interrupted: the best code found so far is shown")
+        return 130
+    return 0
+
+
+def _print(r) -> None:
+    q, flag, bound_key = S.MODES[r.mode]
+    d_text = str(r.d) if r.d is not None else f">= {r.d_lower} (exact value not proved)"
+    t = Table(show_header=False, box=None)
+    t.add_row("code", f"[{r.n}, {r.k}, {r.d if r.d is not None else r.d_lower}]")
+    t.add_row("minimum distance", d_text + (" (proved)" if r.d is not None else ""))
+    t.add_row(bound_key.replace("_", " "), f"{r.bound} ({r.bound_by})")
+    t.add_row(flag.replace("_", " "), "yes" if r.optimal else "no (not proved)")
+    t.add_row("found by", f"{r.strategy} (seed {r.seed})")
+    t.add_row("stopped", r.stopped + (
+        f" while trying [{r.open_target[0]},{r.open_target[1]},{r.open_target[2]}]"
+        if r.open_target else ""))
+    t.add_row("candidates", f"{r.candidates} in {r.seconds:.2f} s")
+    console.print(t)
+    console.print(r.statement())
+    console.print("generator matrix:")
+    sys.stdout.flush()
+    for row in formats.rows_to_strings(r.code.G):
+        console.print(row)

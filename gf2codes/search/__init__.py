@@ -1,0 +1,191 @@
+"""Search for good binary linear codes: the shortest for ``(k, d)``, the best ``d`` for
+``(n, k)``, the largest ``k`` for ``(n, d)``.
+
+A portfolio of strategies, each behind the small interface of
+:class:`~gf2codes.search._base.Strategy` (``candidates(n, k, D, rng)`` yields codes),
+is run by a driver (:mod:`gf2codes.search._driver`) that owns the time limit, the
+schedule and the target test, and proves the winner's distance exactly.
+
+================  =============================================================
+``families``      named families shortened / punctured / extended
+``lexicode``      the greedy lexicographic code (Conway & Sloane 1986)
+``greedy``        column-greedy parity-check matrices (constructive Varshamov)
+``anneal``        simulated annealing on the redundancy matrix of ``[I | A]``
+``circulant``     double-circulant and quasi-cyclic codes, hill-climbed
+``cyclic``        cyclic and shortened cyclic codes
+``random``        random systematic generator matrices
+================  =============================================================
+
+Examples
+--------
+>>> r = search_length(4, 3, time_limit=10, seed=1)
+>>> (r.n, r.k, r.d, r.optimal)
+(7, 4, 3, True)
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Sequence
+
+from ..code import Code
+from ..exceptions import ParameterError
+from ._anneal import Annealing
+from ._base import Strategy, screen, target_test
+from ._circulant import Circulant
+from ._cyclic import Cyclic
+from ._driver import MODES, OnWinner, Progress, SearchResult, run_search, validate
+from ._families import FamilyDerivation
+from ._greedy import ColumnGreedy
+from ._lexicode import Lexicode
+from ._random import RandomSystematic
+
+__all__ = [
+    "STRATEGIES",
+    "Strategy",
+    "SearchResult",
+    "search_length",
+    "search_distance",
+    "search_dimension",
+    "resolve_strategies",
+    "screen",
+    "target_test",
+    "MODES",
+]
+
+#: Strategy name -> instance, in portfolio order (which is also the tie-break order
+#: of the schedule).
+STRATEGIES: dict[str, Strategy] = {
+    s.name: s
+    for s in (FamilyDerivation(), Lexicode(), ColumnGreedy(), Annealing(), Circulant(),
+              Cyclic(), RandomSystematic())
+}
+
+
+def resolve_strategies(names: Iterable[str | Strategy] | None) -> list[Strategy]:
+    """The strategies named (default: the whole portfolio), in portfolio order.
+
+    Strategy objects are accepted too (a custom strategy, or one for a test).
+
+    Raises
+    ------
+    ParameterError
+        For an unknown name, or an empty selection.
+    """
+    if names is None:
+        return list(STRATEGIES.values())
+    chosen: list[Strategy] = []
+    for item in names:
+        if isinstance(item, Strategy):
+            s = item
+        elif item in STRATEGIES:
+            s = STRATEGIES[item]
+        else:
+            raise ParameterError(
+                f"Argument 'strategy' must be one of {', '.join(STRATEGIES)}, not {item!r}."
+            )
+        if s not in chosen:
+            chosen.append(s)
+    if not chosen:
+        raise ParameterError("Argument 'strategy' must name at least one strategy.")
+    order = list(STRATEGIES.values())
+    chosen.sort(key=lambda s: order.index(s) if s in order else len(order))
+    return chosen
+
+
+_DOC_COMMON = """
+    time_limit : float or None
+        Seconds (default 60); the clock only cuts the run short.
+    max_steps : int, optional
+        Stop after this many steps of the schedule (each one bounded unit of a
+        strategy's work): a limit on work, so that the same seed gives the same
+        result whatever the machine's speed.
+    seed : int
+        Seeds every strategy (per strategy and target, independent of the schedule).
+    strategies : iterable of str or Strategy, optional
+        Names from :data:`STRATEGIES` (default: all).
+    start : sequence of Code
+        Known codes to start from (for example the best catalog entry).
+    progress : callable, optional
+        ``progress(done_ms, total_ms, info)``; ``info["note"]`` is a status line.
+    on_winner : callable, optional
+        ``on_winner(code, d, info)`` for every new proved best code.
+
+    Returns
+    -------
+    SearchResult
+
+    Raises
+    ------
+    ParameterError
+        For parameters out of range, a time limit <= 0, an unknown strategy.
+"""
+
+
+def _run(mode: str, n, k, d, time_limit, max_steps, seed, strategies, start, progress,
+         on_winner) -> SearchResult:
+    n, k, d = validate(mode, n, k, d, time_limit, max_steps)
+    chosen = resolve_strategies(strategies)
+    start = [c for c in start if isinstance(c, Code)]
+    return run_search(mode, n=n, k=k, d=d, strategies=chosen, time_limit=time_limit,
+                      max_steps=max_steps, seed=seed, start=start,
+                      progress=progress, on_winner=on_winner)
+
+
+def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
+                  max_steps: int | None = None, seed: int = 0,
+                  strategies: Iterable[str | Strategy] | None = None,
+                  start: Sequence[Code] = (), progress: Progress | None = None,
+                  on_winner: OnWinner | None = None) -> SearchResult:
+    """The shortest binary linear code of dimension ``k`` and distance at least ``d`` found.
+
+    ``result.optimal`` (``proven_shortest``) is true when its length equals the least
+    length the bounds allow (:func:`gf2codes.bounds.least_length`).
+
+    Parameters
+    ----------
+    k, d : int
+        Dimension and required distance, both at least 1.
+    """
+    return _run("length", None, k, d, time_limit, max_steps, seed, strategies, start,
+                progress, on_winner)
+
+
+def search_distance(n: int, k: int, *, time_limit: float | None = 60.0,
+                    max_steps: int | None = None, seed: int = 0,
+                    strategies: Iterable[str | Strategy] | None = None,
+                    start: Sequence[Code] = (), progress: Progress | None = None,
+                    on_winner: OnWinner | None = None) -> SearchResult:
+    """The ``[n, k]`` code of greatest proved distance found.
+
+    ``result.optimal`` is true when it meets :func:`gf2codes.bounds.best_upper`.
+
+    Parameters
+    ----------
+    n, k : int
+        Length and dimension, ``1 <= k <= n``.
+    """
+    return _run("distance", n, k, None, time_limit, max_steps, seed, strategies, start,
+                progress, on_winner)
+
+
+def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
+                     max_steps: int | None = None, seed: int = 0,
+                     strategies: Iterable[str | Strategy] | None = None,
+                     start: Sequence[Code] = (), progress: Progress | None = None,
+                     on_winner: OnWinner | None = None) -> SearchResult:
+    """The code of length ``n`` and distance at least ``d`` of greatest dimension found.
+
+    ``result.optimal`` is true when it meets :func:`gf2codes.bounds.max_dimension`.
+
+    Parameters
+    ----------
+    n, d : int
+        Length and required distance, ``1 <= d <= n``.
+    """
+    return _run("dimension", n, None, d, time_limit, max_steps, seed, strategies, start,
+                progress, on_winner)
+
+
+for _f in (search_length, search_distance, search_dimension):
+    _f.__doc__ = _f.__doc__.rstrip() + "\n" + _DOC_COMMON
+del _f

@@ -1,0 +1,72 @@
+"""Benchmark of `gf2codes search`: least length found for fixed (k, d) targets.
+
+Prints, for each target, the length found, the least length the bounds allow, the
+gap, the strategy that won and the seconds, then the same as a markdown table for
+the README. Figures only, no assertions. The "from scratch" rows exclude the
+``families`` strategy, so no named code (Golay included) is built.
+
+    PYTHONPATH=. python scripts/bench_search.py [--time-limit S] [--seed S]
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import time
+
+from gf2codes.search import STRATEGIES, search_length
+
+SCRATCH = [name for name in STRATEGIES if name != "families"]
+
+#: (k, d, strategies or None for the whole portfolio, note)
+TARGETS = [
+    (4, 3, None, "Hamming [7,4,3]"),
+    (11, 3, None, "Hamming [15,11,3]"),
+    (5, 8, None, "RM(1,4) [16,5,8]"),
+    (64, 4, None, "shortened extended Hamming [72,64,4]"),
+    (12, 8, SCRATCH, "extended Golay length, from scratch"),
+    (64, 4, SCRATCH, "from scratch"),
+    (5, 8, SCRATCH, "from scratch"),
+    (10, 6, None, ""),
+    (16, 6, None, ""),
+    (8, 8, None, ""),
+    (20, 4, None, ""),
+    (32, 6, None, ""),
+]
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--time-limit", type=float, default=60.0, help="seconds per target")
+    ap.add_argument("--seed", type=int, default=0)
+    args = ap.parse_args()
+    load = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
+    print(f"time limit {args.time_limit:g} s per target, seed {args.seed}, "
+          f"{os.cpu_count()} cores, load average {load:.2f} at start")
+    rows = []
+    for k, d, strategies, note in TARGETS:
+        t0 = time.perf_counter()
+        r = search_length(k, d, time_limit=args.time_limit, seed=args.seed,
+                          strategies=strategies)
+        wall = time.perf_counter() - t0
+        used = "all" if strategies is None else "no families"
+        row = (k, d, r.n, r.bound, r.n - r.bound, r.d, r.strategy, used, r.seconds, wall,
+               r.stopped, note)
+        rows.append(row)
+        print(f"k={k:3d} d={d:2d}  n={r.n:4d}  bound={r.bound:4d} ({r.bound_by})  "
+              f"gap={r.n - r.bound}  d={r.d}  by {r.strategy:10s} [{used}]  "
+              f"{r.seconds:6.2f} s search, {wall:6.2f} s with proof  ({r.stopped}) {note}",
+              flush=True)
+    print()
+    print("| k | d | n found | least n (bounds) | gap | d proved | found by | strategies "
+          "| seconds | note |")
+    print("|---:|---:|---:|---:|---:|---:|---|---|---:|---|")
+    for k, d, n, b, gap, dd, who, used, _secs, wall, stopped, note in rows:
+        print(f"| {k} | {d} | {n} | {b} | {gap} | {dd} | {who} | {used} | {wall:.1f} "
+              f"| {note or stopped} |")
+    load = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
+    print(f"\nload average {load:.2f} at the end")
+
+
+if __name__ == "__main__":
+    main()
