@@ -18,6 +18,7 @@ __all__ = [
     "CatalogError",
     "TooExpensiveError",
     "ClaimError",
+    "MissingDependencyError",
     "check_int",
 ]
 
@@ -62,6 +63,11 @@ class ClaimError(Gf2CodesError, ValueError):
     The bound came from the code's construction or from the file it was read from;
     the message says which value was claimed and what was proved.
     """
+
+
+class MissingDependencyError(Gf2CodesError, ImportError):
+    """An optional dependency (matplotlib, dask) is not installed; the message gives
+    the command that installs it."""
 
 
 def check_int(name: str, value: object, *, minimum: int | None = None,

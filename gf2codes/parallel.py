@@ -21,7 +21,7 @@ import os
 from collections.abc import Callable, Iterator, Sequence
 from typing import Any
 
-from .exceptions import Gf2CodesError, ParameterError, check_int
+from .exceptions import Gf2CodesError, MissingDependencyError, ParameterError, check_int
 
 __all__ = ["Executor", "InProcess", "ProcessPool", "DaskCluster", "make_executor"]
 
@@ -132,7 +132,7 @@ class DaskCluster(Executor):
         try:
             from dask.distributed import Client, LocalCluster
         except ImportError:
-            raise ParameterError(
+            raise MissingDependencyError(
                 "Dask is not installed; install the extra with: pip install 'gf2codes[dask]'"
             ) from None
         if (address is None) == (local_workers is None):

@@ -27,6 +27,8 @@ COMMANDS: dict[str, str] = {
     "build": "._build",
     "derive": "._derive",
     "search": "._search",
+    "channel": "._channel",
+    "export": "._export",
 }
 
 

@@ -44,6 +44,8 @@ def register(subparsers) -> None:
     p.add_argument("--d", metavar="D", help="minimum distance")
     p.add_argument("--table", action="store_true",
                    help="print the best upper bound on d for every (n, k) in the ranges")
+    p.add_argument("--plot", metavar="FILE.png",
+                   help="also draw the bounds on d against n for the given k into an image file")
     add_json_flag(p)
 
 
@@ -55,6 +57,8 @@ def _int(name: str, text: str) -> int:
 
 
 def run(args) -> int:
+    if getattr(args, "plot", None):
+        return _run_and_plot(args)
     given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
     if args.table:
         if "d" in given:
@@ -72,6 +76,24 @@ def run(args) -> int:
         "Arguments must be exactly two of --n, --k, --d (or --table with --n), not "
         + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
     )
+
+
+def _run_and_plot(args) -> int:
+    """``bounds --plot FILE``: the report, then the bounds on d against n for the given k."""
+    from ..plots import require_matplotlib, save_bounds_plot
+
+    require_matplotlib()
+    if args.k is None or "-" in args.k:
+        raise ParameterError("Argument '--plot' needs a single dimension --k.")
+    path, args.plot = args.plot, None
+    status = run(args)
+    n = _int("n", args.n) if args.n is not None and "-" not in args.n else None
+    d = _int("d", args.d) if args.d is not None else None
+    out = save_bounds_plot(path, k=_int("k", args.k), n=n, d=d)
+    from ._common import err_console
+
+    err_console.print(f"wrote {out}")
+    return status
 
 
 def _mark(values: dict[str, int], best: int) -> dict[str, bool]:
