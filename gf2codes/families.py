@@ -54,12 +54,27 @@ from dataclasses import dataclass, field
 from itertools import combinations
 from typing import Any
 
-import galois
 import numpy as np
 import numpy.typing as npt
 
 from .code import Code
 from .exceptions import ParameterError, ParseError, check_int
+
+
+class _LazyModule:
+    """``galois`` imported on first use: it takes most of a second, and most commands
+    that import this module never build a polynomial."""
+
+    def __init__(self, name: str) -> None:
+        self._name = name
+
+    def __getattr__(self, attr: str) -> Any:
+        import importlib
+
+        return getattr(importlib.import_module(self._name), attr)
+
+
+galois = _LazyModule("galois")
 
 __all__ = [
     "MAX_LENGTH",
@@ -95,7 +110,6 @@ MAX_LENGTH = 4096
 #: Largest extension degree used to find the roots of a cyclic code for the BCH bound.
 _MAX_ROOT_FIELD_DEGREE = 16
 
-GF2 = galois.GF(2)
 
 
 # ----------------------------------------------------------------- helpers
@@ -191,7 +205,7 @@ def parse_polynomial(text: str | galois.Poly) -> galois.Poly:
     'x^3 + x + 1'
     """
     if isinstance(text, galois.Poly):
-        if text.field is not GF2:
+        if text.field is not galois.GF(2):
             raise ParseError(f"<polynomial>: the polynomial must be over GF(2), not {text.field}.")
         return text
     if not isinstance(text, str):

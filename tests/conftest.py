@@ -17,6 +17,13 @@ settings.register_profile(
 settings.load_profile("default")
 
 
+@pytest.fixture(autouse=True)
+def _private_catalog(tmp_path_factory, monkeypatch):
+    """No test reads or writes the user's own catalog."""
+    monkeypatch.setenv("GF2CODES_CATALOG", str(tmp_path_factory.mktemp("cat") / "c.sqlite"))
+    monkeypatch.setenv("XDG_DATA_HOME", str(tmp_path_factory.mktemp("xdg")))
+
+
 @pytest.fixture(scope="session")
 def hamming74() -> Code:
     # Systematic [7,4,3] Hamming code: MacWilliams & Sloane (1977), ch. 1 section 2.

@@ -9,7 +9,7 @@ import pytest
 import gf2codes
 
 MODULES = ["code", "linalg", "distance", "weights", "bounds", "families", "derive", "formats",
-           "parallel", "exceptions"]
+           "parallel", "search", "decoding", "export", "exceptions"]
 
 
 @pytest.mark.parametrize("name", MODULES)
@@ -32,9 +32,10 @@ def test_exceptions_derive_from_builtins():
 
     assert issubclass(ParseError, ValueError) and issubclass(ParameterError, ValueError)
     assert issubclass(CatalogError, RuntimeError) and issubclass(TooExpensiveError, RuntimeError)
-    from gf2codes.exceptions import ClaimError
+    from gf2codes.exceptions import ClaimError, MissingDependencyError
 
-    for cls in (ParseError, ParameterError, CatalogError, TooExpensiveError, ClaimError):
+    for cls in (ParseError, ParameterError, CatalogError, TooExpensiveError, ClaimError,
+                MissingDependencyError):
         assert issubclass(cls, Gf2CodesError) and cls.__doc__
 
 

@@ -64,14 +64,16 @@ def register(sub: argparse._SubParsersAction) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    if getattr(args, "plot", None):
-        return _run_and_plot(args)
     if args.time_limit is not None and not args.time_limit > 0:
         raise ParameterError(f"Argument '--time-limit' must be positive, not {args.time_limit}.")
     if args.target_d is not None:
         check_int("--target-d", args.target_d, minimum=1)
     if args.workers is not None:
         check_int("--workers", args.workers, minimum=1)
+    if args.plot:
+        from ..plots import require_matplotlib
+
+        require_matplotlib()  # before the work, not after it
     record = read_code(args.file, parity_check=args.parity_check)
     stated = {key: getattr(record, key) for key in ("d", "d_lower", "d_upper")
               if getattr(record, key) is not None}
@@ -82,30 +84,29 @@ def run(args: argparse.Namespace) -> int:
         executor = (ProcessPool(args.pool) if args.pool is not None else
                     make_executor(scheduler=args.scheduler, dask_local=args.dask_local))
     try:
-        return report(record.code, as_json=args.json, time_limit=args.time_limit,
-                      method=args.method, target_d=args.target_d, source=args.file,
-                      seed=args.seed, workers=args.workers, stated=stated, executor=executor)
+        info = analyse(record.code, time_limit=args.time_limit, method=args.method,
+                       target_d=args.target_d, seed=args.seed, workers=args.workers,
+                       stated=stated, executor=executor)
     finally:
         if executor is not None:
             executor.close()
-
-
-def _run_and_plot(args: argparse.Namespace) -> int:
-    """``verify --plot FILE``: the report, then the weight distribution drawn as bars."""
-    from ..plots import require_matplotlib, save_weight_distribution_plot
-
-    require_matplotlib()
-    path, args.plot = args.plot, None
-    status = run(args)
-    code = read_code(args.file, parity_check=args.parity_check).code
-    if weight_enumeration_cost(code) > DEFAULT_MAX_ENUMERATION:
-        raise TooExpensiveError(f"--plot: the weight distribution of this [{code.n},{code.k}] "
-                                "code is too expensive to count.")
-    out = save_weight_distribution_plot(
-        weight_distribution(code), path,
-        title=f"Weight distribution of the [{code.n}, {code.k}] code ({args.file})")
-    err_console.print(f"wrote {escape(str(out))}")
+    status = _print(info, record.code, args.file, as_json=args.json)
+    if args.plot:
+        _plot(info, record.code, args.file, args.plot)
     return status
+
+
+def _plot(info: dict[str, Any], code: Code, source: str, path: str) -> None:
+    """``verify --plot FILE``: the weight distribution just computed, drawn as bars."""
+    from ..plots import save_weight_distribution_plot
+
+    if info["weight_distribution"] is None:
+        raise TooExpensiveError(f"--plot: the weight distribution of this [{code.n},{code.k}] "
+                                "code was not computed, so there is nothing to draw.")
+    out = save_weight_distribution_plot(
+        info["weight_distribution"], path,
+        title=f"Weight distribution of the [{code.n}, {code.k}] code ({source})")
+    err_console.print(f"wrote {escape(str(out))}")
 
 
 def _distance(code: Code, method: str, time_limit: float | None, target_d: int | None,
@@ -244,13 +245,16 @@ def report(code: Code, *, as_json: bool = False, time_limit: float | None = None
     """Verify ``code`` and print the report (table or JSON). Returns the exit status."""
     info = analyse(code, time_limit=time_limit, method=method, target_d=target_d, seed=seed,
                    workers=workers, stated=stated, executor=executor)
+    return _print(info, code, source, as_json=as_json)
+
+
+def _print(info: dict[str, Any], code: Code, source: str | None, *, as_json: bool) -> int:
+    """Print a report (table or JSON); the exit status is 130 after a Ctrl-C."""
     status = 130 if info["stopped"] == "interrupted" else 0
     if as_json:
-        if source:
-            info = {"source": source, **info}
-        print_json(info)
-        return status
-    _print_report(info, code, source)
+        print_json({"source": source, **info} if source else info)
+    else:
+        _print_report(info, code, source)
     return status
 
 
