@@ -6,6 +6,9 @@ the README. Figures only, no assertions. The "from scratch" rows exclude the
 ``families`` strategy, so no named code (Golay included) is built.
 
     PYTHONPATH=. python scripts/bench_search.py [--time-limit S] [--seed S]
+
+It ends with the speed-up of 2 worker processes over 1 for the portfolio run as
+parallel tasks.
 """
 
 from __future__ import annotations
@@ -64,8 +67,32 @@ def main() -> None:
     for k, d, n, b, gap, dd, who, used, _secs, wall, stopped, note in rows:
         print(f"| {k} | {d} | {n} | {b} | {gap} | {dd} | {who} | {used} | {wall:.1f} "
               f"| {note or stopped} |")
+    speedup(args.seed)
     load = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
     print(f"\nload average {load:.2f} at the end")
+
+
+def speedup(seed: int) -> None:
+    """The portfolio as parallel tasks: 2 worker processes against 1, same step limit
+    (so both runs do the same work and return the same code)."""
+    from gf2codes.parallel import ProcessPool
+
+    print("\n## the portfolio as tasks: 2 workers against 1 (same step limit, same result)")
+    print("| k | d | n | seconds, 1 worker | seconds, 2 workers | speed-up |")
+    print("|---:|---:|---:|---:|---:|---:|")
+    for k, d in ((10, 6), (16, 6)):
+        times, codes = [], []
+        for workers in (1, 2):
+            with ProcessPool(workers) as pool:
+                search_length(4, 3, executor=pool, max_steps=1, time_limit=None)  # warm
+                t0 = time.perf_counter()
+                r = search_length(k, d, executor=pool, max_steps=300, time_limit=None,
+                                  seed=seed)
+                times.append(time.perf_counter() - t0)
+                codes.append(r.code)
+        same = "" if codes[0] == codes[1] else " (results differ!)"
+        print(f"| {k} | {d} | {r.n} | {times[0]:.1f} | {times[1]:.1f} | "
+              f"{times[0] / times[1]:.2f}x{same} |", flush=True)
 
 
 if __name__ == "__main__":

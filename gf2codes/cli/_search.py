@@ -60,6 +60,12 @@ def register(subparsers) -> None:
                         "a generator matrix as text otherwise")
     p.add_argument("--catalog", metavar="PATH", default=None,
                    help="catalog database to start from and save to")
+    p.add_argument("--workers", metavar="N", default=None,
+                   help="run the strategies as parallel tasks on a pool of N processes")
+    p.add_argument("--scheduler", metavar="ADDRESS", default=None,
+                   help="run the strategies as tasks on a running Dask cluster")
+    p.add_argument("--dask-local", metavar="N", default=None,
+                   help="start a local Dask cluster of N workers for the strategies")
     p.add_argument("--no-catalog", action="store_true",
                    help="neither read nor write the catalog")
     add_json_flag(p)
@@ -91,6 +97,19 @@ def _open_catalog(args):
         if args.catalog is not None:  # asked for by name: its errors are the user's
             raise
         return None  # no usable default catalog: search without one
+
+
+def _executor(args):
+    """The executor asked for by --workers / --scheduler / --dask-local (None: serial)."""
+    if args.workers is None and args.scheduler is None and args.dask_local is None:
+        return None
+    from ..parallel import make_executor
+
+    workers = None if args.workers is None else _int("workers", args.workers)
+    local = None if args.dask_local is None else _int("dask_local", args.dask_local)
+    if workers is not None and workers < 1:
+        raise ParameterError(f"Argument '--workers' must be at least 1, not {workers}.")
+    return make_executor(workers=workers, scheduler=args.scheduler, dask_local=local)
 
 
 def run(args) -> int:
@@ -131,10 +150,15 @@ def run(args) -> int:
                         source="search", seed=info.get("seed"))
 
         label = "search " + " ".join(f"{key}={val}" for key, val in kw.items())
-        with ProgressBar(label, delay=1.0) as bar:
-            result = func(*kw.values(), time_limit=time_limit, max_steps=max_steps,
-                          seed=seed, strategies=strategies, start=start, progress=bar,
-                          on_winner=save)
+        executor = _executor(args)
+        try:
+            with ProgressBar(label, delay=1.0) as bar:
+                result = func(*kw.values(), time_limit=time_limit, max_steps=max_steps,
+                              seed=seed, strategies=strategies, start=start, progress=bar,
+                              on_winner=save, executor=executor)
+        finally:
+            if executor is not None:
+                executor.close()
         interrupted = result.stopped == "interrupted"
     finally:
         if cat is not None:

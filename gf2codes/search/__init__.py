@@ -108,7 +108,13 @@ _DOC_COMMON = """
     progress : callable, optional
         ``progress(done_ms, total_ms, info)``; ``info["note"]`` is a status line.
     on_winner : callable, optional
-        ``on_winner(code, d, info)`` for every new proved best code.
+        ``on_winner(code, d, info)`` for every new proved best code (with an executor:
+        for the final winner).
+    executor : gf2codes.parallel.Executor, optional
+        Run each strategy of the portfolio as an independent task there (other
+        processes, a Dask cluster) and merge by a fixed rule: the best value, ties to
+        the strategy earlier in the portfolio. With ``max_steps`` the result does not
+        depend on the number of workers. ``progress`` is not called.
 
     Returns
     -------
@@ -122,10 +128,25 @@ _DOC_COMMON = """
 
 
 def _run(mode: str, n, k, d, time_limit, max_steps, seed, strategies, start, progress,
-         on_winner) -> SearchResult:
+         on_winner, executor=None) -> SearchResult:
     n, k, d = validate(mode, n, k, d, time_limit, max_steps)
     chosen = resolve_strategies(strategies)
     start = [c for c in start if isinstance(c, Code)]
+    if executor is not None:
+        from ._parallel import run_portfolio_parallel
+
+        unknown = [s for s in chosen if STRATEGIES.get(s.name) is not s]
+        if unknown:
+            raise ParameterError("Argument 'executor' needs the strategies of the portfolio "
+                                 f"(by name), not a custom {unknown[0].name!r}.")
+        result = run_portfolio_parallel(mode, n=n, k=k, d=d,
+                                        strategy_names=[s.name for s in chosen],
+                                        executor=executor, time_limit=time_limit,
+                                        max_steps=max_steps, seed=seed, start=start)
+        if on_winner is not None and result.d is not None:
+            on_winner(result.code, result.d, {"exact": True, "seed": result.seed,
+                                              "strategy": result.strategy})
+        return result
     return run_search(mode, n=n, k=k, d=d, strategies=chosen, time_limit=time_limit,
                       max_steps=max_steps, seed=seed, start=start,
                       progress=progress, on_winner=on_winner)
@@ -135,7 +156,7 @@ def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
                   max_steps: int | None = None, seed: int = 0,
                   strategies: Iterable[str | Strategy] | None = None,
                   start: Sequence[Code] = (), progress: Progress | None = None,
-                  on_winner: OnWinner | None = None) -> SearchResult:
+                  on_winner: OnWinner | None = None, executor=None) -> SearchResult:
     """The shortest binary linear code of dimension ``k`` and distance at least ``d`` found.
 
     ``result.optimal`` (``proven_shortest``) is true when its length equals the least
@@ -147,14 +168,14 @@ def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
         Dimension and required distance, both at least 1.
     """
     return _run("length", None, k, d, time_limit, max_steps, seed, strategies, start,
-                progress, on_winner)
+                progress, on_winner, executor)
 
 
 def search_distance(n: int, k: int, *, time_limit: float | None = 60.0,
                     max_steps: int | None = None, seed: int = 0,
                     strategies: Iterable[str | Strategy] | None = None,
                     start: Sequence[Code] = (), progress: Progress | None = None,
-                    on_winner: OnWinner | None = None) -> SearchResult:
+                    on_winner: OnWinner | None = None, executor=None) -> SearchResult:
     """The ``[n, k]`` code of greatest proved distance found.
 
     ``result.optimal`` is true when it meets :func:`gf2codes.bounds.best_upper`.
@@ -165,14 +186,14 @@ def search_distance(n: int, k: int, *, time_limit: float | None = 60.0,
         Length and dimension, ``1 <= k <= n``.
     """
     return _run("distance", n, k, None, time_limit, max_steps, seed, strategies, start,
-                progress, on_winner)
+                progress, on_winner, executor)
 
 
 def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
                      max_steps: int | None = None, seed: int = 0,
                      strategies: Iterable[str | Strategy] | None = None,
                      start: Sequence[Code] = (), progress: Progress | None = None,
-                     on_winner: OnWinner | None = None) -> SearchResult:
+                     on_winner: OnWinner | None = None, executor=None) -> SearchResult:
     """The code of length ``n`` and distance at least ``d`` of greatest dimension found.
 
     ``result.optimal`` is true when it meets :func:`gf2codes.bounds.max_dimension`.
@@ -183,7 +204,7 @@ def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
         Length and required distance, ``1 <= d <= n``.
     """
     return _run("dimension", n, None, d, time_limit, max_steps, seed, strategies, start,
-                progress, on_winner)
+                progress, on_winner, executor)
 
 
 for _f in (search_length, search_distance, search_dimension):
