@@ -172,15 +172,18 @@ class DaskCluster(Executor):
             self._cluster.close()
 
 
-def make_executor(*, workers: int | None = None, scheduler: str | None = None,
-                  dask_local: int | None = None) -> Executor:
-    """The executor the command line asks for: Dask when a scheduler address or a local
-    Dask cluster size is given, else a process pool of ``workers`` (default: one per
-    core), or in-process work when ``workers == 1``."""
-    if scheduler is not None or dask_local is not None:
-        if scheduler is not None and dask_local is not None:
-            raise ParameterError("Give --scheduler or --dask-local, not both.")
-        return DaskCluster(scheduler, local_workers=dask_local)
-    if workers == 1:
-        return InProcess()
-    return ProcessPool(workers)
+def make_executor(*, pool: int | None = None, scheduler: str | None = None,
+                  dask_local: int | None = None) -> Executor | None:
+    """The executor asked for by at most one of: a local process pool of ``pool``
+    workers, a running Dask cluster at ``scheduler``, or a local Dask cluster of
+    ``dask_local`` workers. ``None`` when none is asked for (work in this process)."""
+    given = [name for name, v in (("pool", pool), ("scheduler", scheduler),
+                                  ("dask_local", dask_local)) if v is not None]
+    if not given:
+        return None
+    if len(given) > 1:
+        raise ParameterError(f"Give one of pool, scheduler, dask_local, not "
+                             f"{' and '.join(given)}.")
+    if pool is not None:
+        return ProcessPool(check_int("pool", pool, minimum=1))
+    return DaskCluster(scheduler, local_workers=dask_local)

@@ -43,10 +43,14 @@ def test_executors_run_every_task():
 
 
 def test_make_executor_choices():
-    assert isinstance(make_executor(workers=1), InProcess)
-    assert isinstance(make_executor(workers=2), ProcessPool)
-    with pytest.raises(ParameterError, match="not both"):
+    assert make_executor() is None
+    pool = make_executor(pool=2)
+    assert isinstance(pool, ProcessPool) and pool.workers == 2
+    pool.close()
+    with pytest.raises(ParameterError, match="not scheduler and dask_local"):
         make_executor(scheduler="tcp://127.0.0.1:1", dask_local=2)
+    with pytest.raises(ParameterError, match="'pool' must be at least 1"):
+        make_executor(pool=0)
 
 
 @pytest.fixture(scope="module")
@@ -154,12 +158,12 @@ def test_parallel_search_is_reproducible_across_executors(dask_cluster):
     assert minimum_distance(serial.code).d == serial.d >= 6
 
 
-def test_search_cli_with_workers(capsys):
+def test_search_cli_on_a_process_pool(capsys):
     import json
 
     from gf2codes.cli import main
 
-    assert main(["search", "--k", "4", "--d", "3", "--workers", "2", "--no-catalog",
+    assert main(["search", "--k", "4", "--d", "3", "--pool", "2", "--no-catalog",
                  "--json"]) == 0
     out = json.loads(capsys.readouterr().out)
     # [7,4,3] Hamming code: the shortest (MacWilliams & Sloane, ch. 1 section 2).

@@ -14,7 +14,7 @@ from rich.table import Table
 
 from .. import bounds as B
 from ..exceptions import ParameterError
-from ._common import add_json_flag, console, parse_range, print_json
+from ._common import add_json_flag, console, parse_int, parse_range, print_json
 
 __all__ = ["register", "run"]
 
@@ -49,13 +49,6 @@ def register(subparsers) -> None:
     add_json_flag(p)
 
 
-def _int(name: str, text: str) -> int:
-    try:
-        return int(text, 10)
-    except (TypeError, ValueError):
-        raise ParameterError(f"Argument {name!r} must be an integer, not {text!r}.") from None
-
-
 def run(args) -> int:
     if getattr(args, "plot", None):
         return _run_and_plot(args)
@@ -67,11 +60,11 @@ def run(args) -> int:
             raise ParameterError("Argument 'n' must be given with --table (e.g. --n 1-40).")
         return _run_table(args)
     if given == {"n", "k"}:
-        return _run_nk(_int("n", args.n), _int("k", args.k), args.json)
+        return _run_nk(parse_int("n", args.n), parse_int("k", args.k), args.json)
     if given == {"n", "d"}:
-        return _run_nd(_int("n", args.n), _int("d", args.d), args.json)
+        return _run_nd(parse_int("n", args.n), parse_int("d", args.d), args.json)
     if given == {"k", "d"}:
-        return _run_kd(_int("k", args.k), _int("d", args.d), args.json)
+        return _run_kd(parse_int("k", args.k), parse_int("d", args.d), args.json)
     raise ParameterError(
         "Arguments must be exactly two of --n, --k, --d (or --table with --n), not "
         + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
@@ -87,9 +80,9 @@ def _run_and_plot(args) -> int:
         raise ParameterError("Argument '--plot' needs a single dimension --k.")
     path, args.plot = args.plot, None
     status = run(args)
-    n = _int("n", args.n) if args.n is not None and "-" not in args.n else None
-    d = _int("d", args.d) if args.d is not None else None
-    out = save_bounds_plot(path, k=_int("k", args.k), n=n, d=d)
+    n = parse_int("n", args.n) if args.n is not None and "-" not in args.n else None
+    d = parse_int("d", args.d) if args.d is not None else None
+    out = save_bounds_plot(path, k=parse_int("k", args.k), n=n, d=d)
     from ._common import err_console
 
     err_console.print(f"wrote {out}")

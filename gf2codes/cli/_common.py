@@ -10,7 +10,8 @@ from rich.console import Console
 
 from ..exceptions import ParameterError
 
-__all__ = ["console", "err_console", "print_json", "parse_range", "add_json_flag", "ProgressBar"]
+__all__ = ["console", "err_console", "print_json", "parse_range", "parse_int", "parse_float",
+           "add_json_flag", "add_executor_options", "executor_from_args", "ProgressBar"]
 
 console = Console(highlight=False)
 err_console = Console(stderr=True, highlight=False)
@@ -25,6 +26,44 @@ def print_json(obj: Any) -> None:
     """Write ``obj`` as JSON on standard output (one object, newline-terminated)."""
     sys.stdout.write(json.dumps(obj, indent=2, sort_keys=False) + "\n")
     sys.stdout.flush()
+
+
+def parse_int(name: str, text: str) -> int:
+    """An integer option given as text, or a one-line :class:`ParameterError`.
+
+    >>> parse_int('k', '12')
+    12
+    """
+    try:
+        return int(text, 10)
+    except (TypeError, ValueError):
+        raise ParameterError(f"Argument {name!r} must be an integer, not {text!r}.") from None
+
+
+def parse_float(name: str, text: str) -> float:
+    """A number option given as text, or a one-line :class:`ParameterError`."""
+    try:
+        return float(text)
+    except (TypeError, ValueError):
+        raise ParameterError(f"Argument {name!r} must be a number, not {text!r}.") from None
+
+
+def add_executor_options(parser, what: str) -> None:
+    """``--pool N``, ``--scheduler ADDRESS`` and ``--dask-local N``: where ``what`` runs."""
+    parser.add_argument("--pool", type=int, metavar="N",
+                        help=f"run {what} on a local pool of N processes")
+    parser.add_argument("--scheduler", metavar="ADDRESS",
+                        help=f"run {what} on a running Dask cluster (e.g. tcp://head:8786; "
+                             "needs gf2codes[dask])")
+    parser.add_argument("--dask-local", type=int, metavar="N",
+                        help=f"start a local Dask cluster of N worker processes for {what}")
+
+
+def executor_from_args(args):
+    """The executor that :func:`add_executor_options` asked for, or None (work here)."""
+    from ..parallel import make_executor
+
+    return make_executor(pool=args.pool, scheduler=args.scheduler, dask_local=args.dask_local)
 
 
 def parse_range(name: str, text: str) -> range:

@@ -25,7 +25,17 @@ from .. import formats
 from .. import search as S
 from ..exceptions import Gf2CodesError, ParameterError
 from ..search._driver import validate
-from ._common import ProgressBar, add_json_flag, console, err_console, print_json
+from ._common import (
+    ProgressBar,
+    add_executor_options,
+    add_json_flag,
+    console,
+    err_console,
+    executor_from_args,
+    parse_float,
+    parse_int,
+    print_json,
+)
 
 try:
     from .. import catalog
@@ -60,32 +70,10 @@ def register(subparsers) -> None:
                         "a generator matrix as text otherwise")
     p.add_argument("--catalog", metavar="PATH", default=None,
                    help="catalog database to start from and save to")
-    p.add_argument("--workers", metavar="N", default=None,
-                   help="run the strategies as parallel tasks on a pool of N processes")
-    p.add_argument("--scheduler", metavar="ADDRESS", default=None,
-                   help="run the strategies as tasks on a running Dask cluster")
-    p.add_argument("--dask-local", metavar="N", default=None,
-                   help="start a local Dask cluster of N workers for the strategies")
+    add_executor_options(p, "the strategies, as parallel tasks")
     p.add_argument("--no-catalog", action="store_true",
                    help="neither read nor write the catalog")
     add_json_flag(p)
-
-
-def _int(name: str, text: str) -> int:
-    try:
-        return int(text, 10)
-    except (TypeError, ValueError):
-        raise ParameterError(f"Argument {name!r} must be an integer, not {text!r}.") from None
-
-
-def _float(name: str, text: str) -> float:
-    try:
-        value = float(text)
-    except (TypeError, ValueError):
-        raise ParameterError(f"Argument {name!r} must be a number, not {text!r}.") from None
-    if not value > 0:
-        raise ParameterError(f"Argument {name!r} must be positive, not {text}.")
-    return value
 
 
 def _open_catalog(args):
@@ -99,32 +87,19 @@ def _open_catalog(args):
         return None  # no usable default catalog: search without one
 
 
-def _executor(args):
-    """The executor asked for by --workers / --scheduler / --dask-local (None: serial)."""
-    if args.workers is None and args.scheduler is None and args.dask_local is None:
-        return None
-    from ..parallel import make_executor
-
-    workers = None if args.workers is None else _int("workers", args.workers)
-    local = None if args.dask_local is None else _int("dask_local", args.dask_local)
-    if workers is not None and workers < 1:
-        raise ParameterError(f"Argument '--workers' must be at least 1, not {workers}.")
-    return make_executor(workers=workers, scheduler=args.scheduler, dask_local=local)
-
-
 def run(args) -> int:
     given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
-    time_limit = _float("time_limit", args.time_limit)
-    seed = _int("seed", args.seed)
-    max_steps = None if args.max_steps is None else _int("max_steps",
+    time_limit = parse_float("time_limit", args.time_limit)
+    seed = parse_int("seed", args.seed)
+    max_steps = None if args.max_steps is None else parse_int("max_steps",
                                                               args.max_steps)
     strategies = S.resolve_strategies(args.strategy)
     if given == {"k", "d"}:
-        mode, kw = "length", {"k": _int("k", args.k), "d": _int("d", args.d)}
+        mode, kw = "length", {"k": parse_int("k", args.k), "d": parse_int("d", args.d)}
     elif given == {"n", "k"}:
-        mode, kw = "distance", {"n": _int("n", args.n), "k": _int("k", args.k)}
+        mode, kw = "distance", {"n": parse_int("n", args.n), "k": parse_int("k", args.k)}
     elif given == {"n", "d"}:
-        mode, kw = "dimension", {"n": _int("n", args.n), "d": _int("d", args.d)}
+        mode, kw = "dimension", {"n": parse_int("n", args.n), "d": parse_int("d", args.d)}
     else:
         raise ParameterError(
             "Arguments must be exactly two of --n, --k, --d, not "
@@ -150,7 +125,7 @@ def run(args) -> int:
                         source="search", seed=info.get("seed"))
 
         label = "search " + " ".join(f"{key}={val}" for key, val in kw.items())
-        executor = _executor(args)
+        executor = executor_from_args(args)
         try:
             with ProgressBar(label, delay=1.0) as bar:
                 result = func(*kw.values(), time_limit=time_limit, max_steps=max_steps,

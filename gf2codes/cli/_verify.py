@@ -19,7 +19,15 @@ from ..weights import (
     weight_distribution,
     weight_enumeration_cost,
 )
-from ._common import ProgressBar, add_json_flag, console, err_console, print_json
+from ._common import (
+    ProgressBar,
+    add_executor_options,
+    add_json_flag,
+    console,
+    err_console,
+    executor_from_args,
+    print_json,
+)
 
 __all__ = ["register", "run", "report", "analyse"]
 
@@ -51,13 +59,7 @@ def register(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--seed", type=int, default=0, help="seed for the randomised parts")
     p.add_argument("--workers", type=int, metavar="N",
                    help="threads for the exact enumeration (default: one per core)")
-    p.add_argument("--pool", type=int, metavar="N",
-                   help="run the large enumeration levels on a local pool of N processes")
-    p.add_argument("--scheduler", metavar="ADDRESS",
-                   help="run the large enumeration levels on a running Dask cluster "
-                        "(e.g. tcp://10.0.0.5:8786; needs gf2codes[dask])")
-    p.add_argument("--dask-local", type=int, metavar="N",
-                   help="start a local Dask cluster of N worker processes for the run")
+    add_executor_options(p, "the large enumeration levels")
     p.add_argument("--plot", metavar="FILE.png",
                    help="also draw the weight distribution as bars into an image file")
     add_json_flag(p)
@@ -77,12 +79,7 @@ def run(args: argparse.Namespace) -> int:
     record = read_code(args.file, parity_check=args.parity_check)
     stated = {key: getattr(record, key) for key in ("d", "d_lower", "d_upper")
               if getattr(record, key) is not None}
-    executor = None
-    if args.scheduler is not None or args.dask_local is not None or args.pool is not None:
-        from ..parallel import ProcessPool, make_executor
-
-        executor = (ProcessPool(args.pool) if args.pool is not None else
-                    make_executor(scheduler=args.scheduler, dask_local=args.dask_local))
+    executor = executor_from_args(args)
     try:
         info = analyse(record.code, time_limit=args.time_limit, method=args.method,
                        target_d=args.target_d, seed=args.seed, workers=args.workers,

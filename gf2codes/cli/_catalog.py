@@ -1,0 +1,389 @@
+"""``gf2codes catalog ...``: the local catalog of proved codes.
+
+Sub-commands: ``add FILE``, ``list``, ``show ID``, ``best``, ``table``, ``export``,
+``import FILE``, ``remove ID``, ``info``. Every one takes ``--catalog PATH`` (default:
+``GF2CODES_CATALOG``, else ``$XDG_DATA_HOME/gf2codes/catalog.sqlite``) and ``--json``.
+
+Exit status: 0 on success; 1 when ``best`` finds nothing or ``import`` rejected a line;
+2 for errors (one line on standard error).
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+from typing import Any
+
+from ..exceptions import CatalogError, ParameterError, TooExpensiveError, check_int
+from ._common import console, parse_range, print_json
+
+__all__ = ["register", "run"]
+
+
+def _common_options(parser: argparse.ArgumentParser, *, suppress: bool) -> None:
+    default = argparse.SUPPRESS if suppress else None
+    parser.add_argument("--catalog", metavar="PATH", default=default,
+                        help="the catalog file (default: $GF2CODES_CATALOG, else "
+                             "$XDG_DATA_HOME/gf2codes/catalog.sqlite)")
+    parser.add_argument("--json", action="store_true",
+                        default=argparse.SUPPRESS if suppress else False,
+                        help="print JSON instead of text")
+
+
+def _filters(parser: argparse.ArgumentParser) -> None:
+    for name in ("n", "k", "d"):
+        parser.add_argument(f"--{name}", metavar="R", help=f"{name}, a value or a range like 1-32"
+                            + (" (the proved lower bound)" if name == "d" else ""))
+
+
+def register(subparsers: Any) -> None:
+    parser = subparsers.add_parser(
+        "catalog", help="the local catalog of proved codes: add, list, best, table, ...",
+        description="A local SQLite catalog of codes with proved parameters and the recipes "
+                    "that made them. A new catalog starts from the shipped seed records.",
+    )
+    _common_options(parser, suppress=False)
+    sub = parser.add_subparsers(dest="action", metavar="ACTION", required=True,
+                                parser_class=type(parser))
+
+    p = sub.add_parser("add", help="prove d of a code in a file and store it")
+    p.add_argument("file", metavar="FILE", help="text matrix, .npy or JSON code record")
+    p.add_argument("--parity-check", action="store_true",
+                   help="read a matrix file as a parity-check matrix")
+    p.add_argument("--time-limit", type=float, metavar="S",
+                   help="seconds for proving d (default: no limit, refuse if too costly)")
+    p.add_argument("--allow-interval", action="store_true",
+                   help="store the proved interval when d cannot be proved in time")
+    p.add_argument("--source", default="file",
+                   help="what produced the code: file (default), family, search, ...")
+    p.add_argument("--seed", type=int, help="the seed of the search that found it")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("list", help="list stored entries")
+    _filters(p)
+    p.add_argument("--origin", choices=("user", "shipped"), help="only entries of this origin")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("show", help="an entry: its code, recipes and proof")
+    p.add_argument("id", type=int, metavar="ID")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser(
+        "best", help="the best known code for (k, d), (n, k) or (n, d)",
+        description="Give two of --n, --k, --d. (k, d): the shortest code; (n, k): the "
+                    "greatest d; (n, d): the greatest k. Derived codes (shortened, punctured, "
+                    "extended, padded, subcodes of stored ones) count, and say so.")
+    p.add_argument("--n", type=int)
+    p.add_argument("--k", type=int)
+    p.add_argument("--d", type=int)
+    p.add_argument("--rows", action="store_true", help="print the generator rows")
+    p.add_argument("--prove-time", type=float, default=2.0, metavar="S",
+                   help="seconds for proving the exact d of a derived answer (0: do not)")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("table", help="best proved d per (n, k) beside the best upper bound")
+    p.add_argument("--n", default="1-32", metavar="R", help="lengths, e.g. 1-32 (default)")
+    p.add_argument("--below", action="store_true",
+                   help="list only the cells where the catalog is below the bound")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("export", help="write entries as JSON lines")
+    p.add_argument("-o", "--output", metavar="FILE", help="file to write (default: stdout)")
+    _filters(p)
+    p.add_argument("--no-stamps", action="store_true",
+                   help="leave out dates and versions (the format of the shipped catalog)")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("import", help="read JSON-lines records (idempotent)")
+    p.add_argument("file", metavar="FILE", help="JSON lines; '-' for standard input")
+    p.add_argument("--trust", action="store_true",
+                   help="do not re-prove the records (trust their weights and distances)")
+    p.add_argument("--time-limit", type=float, default=10.0, metavar="S",
+                   help="seconds per record for re-proving d when the weights are too costly")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("remove", help="delete an entry and its recipes")
+    p.add_argument("id", type=int, metavar="ID")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser("info", help="where the catalog is and what it holds")
+    _common_options(p, suppress=True)
+
+
+def _range(name: str, text: str | None) -> range | None:
+    return None if text is None else parse_range(name, text)
+
+
+def _dd(entry) -> str:
+    if entry.proved:
+        return f"{entry.d}"
+    if entry.d_upper is None:
+        return f">={entry.d}"
+    return f"{entry.d_lower}..{entry.d_upper}"
+
+
+def _label(entry) -> str:
+    return f"[{entry.n}, {entry.k}, {_dd(entry)}]"
+
+
+def run(args: argparse.Namespace) -> int:
+    from ..catalog import open_catalog
+
+    handler = _HANDLERS[args.action]
+    with open_catalog(args.catalog) as cat:
+        return handler(cat, args)
+
+
+# ------------------------------------------------------------------ handlers
+def _add(cat, args) -> int:
+    from ..distance import minimum_distance
+    from ..formats import read_code
+    from ._common import ProgressBar
+
+    if args.time_limit is not None and not args.time_limit > 0:
+        raise ParameterError(f"Argument '--time-limit' must be positive, not {args.time_limit}.")
+    rec = read_code(args.file, parity_check=args.parity_check)
+    code = rec.code
+    with ProgressBar("proving d") as bar:
+        try:
+            result = minimum_distance(code, time_limit=args.time_limit, progress=bar)
+        except TooExpensiveError as exc:
+            raise CatalogError(f"{args.file}: not added: {exc}; pass --time-limit S "
+                               "--allow-interval to store a proved interval.") from None
+    if not result.exact and not args.allow_interval:
+        raise CatalogError(f"{args.file}: not added: d is not proved ({result.describe()}); "
+                           "pass --allow-interval to store the interval.")
+    proof = {"method": result.method, "seconds": round(result.seconds, 3),
+             "codewords": int(result.codewords)}
+    eid, status = cat._add(code, d=result.lower, proved=result.exact, recipe=None,
+                           source=args.source, seed=args.seed, d_upper=result.upper,
+                           proof=proof)
+    entry = cat.get(eid)
+    if args.json:
+        print_json({"id": eid, "status": status, "n": entry.n, "k": entry.k,
+                    "d": entry.d if entry.proved else None, "d_lower": entry.d_lower,
+                    "d_upper": entry.d_upper, "proof": proof})
+        return 0
+    what = {"added": "added as entry", "merged": "merged into equivalent entry",
+            "unchanged": "already stored as entry"}[status]
+    console.print(f"{args.file}: [{code.n}, {code.k}], {result.describe()} "
+                  f"({result.method}, {result.seconds:.2f} s)")
+    console.print(f"{what} {eid}: {_label(entry)}, {len(entry.recipes)} recipe(s)")
+    return 0
+
+
+def _list(cat, args) -> int:
+    entries = cat.entries(n=_range("n", args.n), k=_range("k", args.k), d=_range("d", args.d),
+                          origin=args.origin)
+    if args.json:
+        print_json([{"id": e.id, "n": e.n, "k": e.k, "d": e.d if e.proved else None,
+                     "d_lower": e.d_lower, "d_upper": e.d_upper, "origin": e.origin,
+                     "recipes": [r["source"] for r in e.recipes]} for e in entries])
+        return 0
+    from rich.table import Table
+
+    table = Table(box=None, header_style="bold")
+    for col in ("id", "[n, k, d]", "origin", "recipes", "first recipe"):
+        table.add_column(col)
+    for e in entries:
+        first = e.recipes[0] if e.recipes else None
+        table.add_row(str(e.id), _label(e), e.origin or "", str(len(e.recipes)),
+                      _recipe_text(first) if first else "")
+    console.print(table)
+    console.print(f"{len(entries)} entr{'y' if len(entries) == 1 else 'ies'}")
+    return 0
+
+
+def _recipe_text(item: dict[str, Any]) -> str:
+    steps = item.get("recipe") or []
+    parts = []
+    for s in steps:
+        if "family" in s:
+            args = ", ".join(f"{k}={v}" for k, v in s.items()
+                             if k != "family" and k != "generator")
+            parts.append(f"{s['family']}({args})")
+        else:
+            extra = f" {len(s['coords'])}" if "coords" in s else (
+                f" {s['count']}" if "count" in s else "")
+            parts.append(f"{s.get('op')}{extra}")
+    text = " -> ".join(parts) if parts else "(no recipe)"
+    tail = f" seed={item['seed']}" if item.get("seed") is not None else ""
+    return f"{item['source']}: {text}{tail}"
+
+
+def _show(cat, args) -> int:
+    from ..formats import rows_to_strings
+
+    entry = cat.get(args.id)
+    if args.json:
+        print_json(entry.to_dict())
+        return 0
+    console.print(f"entry {entry.id}: {_label(entry)}  ({entry.origin}; added {entry.added_at} "
+                  f"by gf2codes {entry.added_by})")
+    if entry.proved:
+        console.print(f"  d = {entry.d} proved", end="")
+    else:
+        console.print(f"  {entry.d_lower} <= d <= {entry.d_upper} (only the interval is "
+                      "proved)", end="")
+    if entry.proof:
+        details = ", ".join(f"{k} {v}" for k, v in entry.proof.items())
+        console.print(f" -- {details}")
+    else:
+        console.print()
+    if entry.weights:
+        nz = ", ".join(f"A_{i}={a}" for i, a in enumerate(entry.weights) if a)
+        console.print(f"  weight distribution: {nz}")
+    console.print(f"  invariant: {entry.invariant}")
+    console.print(f"  recipes ({len(entry.recipes)}):")
+    for r in entry.recipes:
+        perm = " (rebuilds a permuted copy; permutation kept)" if r.get("permutation") else ""
+        console.print(f"    - {_recipe_text(r)}{perm}  [{r['added']}]", soft_wrap=True)
+    console.print("  generator (reduced echelon form):")
+    for row in rows_to_strings(entry.code.rref_generator):
+        console.print(f"    {row}", soft_wrap=True)
+    return 0
+
+
+def _best(cat, args) -> int:
+    from ..distance import minimum_distance
+    from ..formats import rows_to_strings
+
+    for name in ("n", "k", "d"):
+        if getattr(args, name) is not None:
+            check_int(f"--{name}", getattr(args, name), minimum=1)
+    entry = cat.best(n=args.n, k=args.k, d=args.d)
+    asked = ", ".join(f"{x} = {getattr(args, x)}" for x in ("n", "k", "d")
+                      if getattr(args, x) is not None)
+    if entry is None:
+        if args.json:
+            print_json({"found": False})
+        else:
+            console.print(f"nothing in the catalog for {asked}")
+        return 1
+    exact = entry.d if entry.proved else None
+    proof_note = None
+    if entry.derived_from and args.prove_time > 0:
+        result = minimum_distance(entry.code, time_limit=args.prove_time)
+        if result.exact:
+            exact = result.d
+            proof_note = f"rebuilt; d = {result.d} proved ({result.method}, " \
+                         f"{result.seconds:.2f} s)"
+        else:
+            proof_note = f"rebuilt; {result.describe()}"
+    if args.json:
+        out = entry.to_dict()
+        out.update(found=True, d_proved=exact, note=proof_note)
+        print_json(out)
+        return 0
+    label = _label(entry)
+    if entry.derived_from is None:
+        console.print(f"{label}: entry {entry.id} ({entry.origin}), "
+                      f"{'d proved' if entry.proved else 'interval proved'}")
+        first = entry.recipes[0] if entry.recipes else None
+        if first:
+            console.print(f"  recipe: {_recipe_text(first)}", soft_wrap=True)
+    else:
+        console.print(f"{label}: derived from {entry.derived_from}")
+        if proof_note:
+            console.print(f"  {proof_note}")
+    if args.rows:
+        for row in rows_to_strings(entry.code.G):
+            console.print(f"    {row}", soft_wrap=True)
+    return 0
+
+
+def _table(cat, args) -> int:
+    lengths = parse_range("n", args.n)
+    check_int("n", lengths.start, minimum=1)
+    rows = cat.table(lengths)
+    if args.json:
+        print_json(rows)
+        return 0
+    below = [r for r in rows if not r["meets_bound"]]
+    if args.below:
+        for r in below:
+            have = f"d >= {r['d']}" if r["d"] else "nothing"
+            console.print(f"[{r['n']}, {r['k']}]: {have}; bound {r['bound']} ({r['bound_by']})")
+    else:
+        kmax = max(lengths)
+        cells = {(r["n"], r["k"]): (str(r["d"]) if r["meets_bound"] else
+                                   f"{r['d'] or '-'}/{r['bound']}") for r in rows}
+        width = max(3, max(len(c) for c in cells.values()) + 1)
+        out = ["n\\k" + "".join(f"{k:>{width}}" for k in range(1, kmax + 1))]
+        for n in lengths:
+            out.append(f"{n:>3}" + "".join(f"{cells[(n, k)]:>{width}}"
+                                           for k in range(1, n + 1)))
+        sys.stdout.write("\n".join(out) + "\n")
+        console.print("a cell d is the best proved distance and meets the best upper bound; "
+                      "d/b means the catalog has d and the bound is b")
+    console.print(f"{len(rows) - len(below)} of {len(rows)} cells meet the bound, "
+                  f"{len(below)} below")
+    return 0
+
+
+def _export(cat, args) -> int:
+    filters = {"n": _range("n", args.n), "k": _range("k", args.k), "d": _range("d", args.d)}
+    if args.output:
+        with open(args.output, "w", encoding="utf-8") as fh:
+            count = cat.export(fh, stamps=not args.no_stamps, **filters)
+        msg = {"exported": count, "file": args.output}
+        if args.json:
+            print_json(msg)
+        else:
+            console.print(f"exported {count} entries to {args.output}")
+    else:
+        cat.export(sys.stdout, stamps=not args.no_stamps, **filters)
+    return 0
+
+
+def _import(cat, args) -> int:
+    if args.file == "-":
+        lines = sys.stdin.read().splitlines()
+        source = "<stdin>"
+    else:
+        try:
+            with open(args.file, encoding="utf-8") as fh:
+                lines = fh.read().splitlines()
+        except OSError as exc:
+            raise CatalogError(f"{args.file}: cannot read ({exc.strerror}).") from None
+        except UnicodeDecodeError:
+            raise CatalogError(f"{args.file}: not a text file of JSON lines.") from None
+        source = args.file
+    report = cat.import_records(lines, source=source, verify=not args.trust,
+                                time_limit=args.time_limit)
+    if args.json:
+        print_json({"added": report.added, "merged": report.merged,
+                    "unchanged": report.unchanged,
+                    "errors": [{"line": ln, "message": m} for ln, m in report.errors]})
+    else:
+        for _, message in report.errors:
+            print(message, file=sys.stderr)
+        console.print(f"{report.added} added, {report.merged} merged into existing entries, "
+                      f"{report.unchanged} already present, {len(report.errors)} rejected")
+    return 1 if report.errors else 0
+
+
+def _remove(cat, args) -> int:
+    entry = cat.remove(args.id)
+    if args.json:
+        print_json({"removed": entry.id, "n": entry.n, "k": entry.k, "d_lower": entry.d_lower,
+                    "d_upper": entry.d_upper})
+    else:
+        console.print(f"removed entry {entry.id}: {_label(entry)} and its "
+                      f"{len(entry.recipes)} recipe(s)")
+    return 0
+
+
+def _info(cat, args) -> int:
+    info = cat.info()
+    info["problems"] = cat.check()
+    if args.json:
+        print_json(info)
+    else:
+        console.print(json.dumps(info, indent=1))
+    return 0
+
+
+_HANDLERS = {"add": _add, "list": _list, "show": _show, "best": _best, "table": _table,
+             "export": _export, "import": _import, "remove": _remove, "info": _info}
