@@ -15,8 +15,13 @@ import json
 import sys
 from typing import Any
 
+from rich.console import Console
+
 from ..exceptions import CatalogError, ParameterError, TooExpensiveError, check_int
-from ._common import console, parse_range, print_json
+from ._common import parse_range, print_json
+
+# Plain text: codes print as [n, k, d], which rich would take for markup.
+console = Console(highlight=False, markup=False)
 
 __all__ = ["register", "run"]
 
@@ -181,16 +186,15 @@ def _list(cat, args) -> int:
                      "d_lower": e.d_lower, "d_upper": e.d_upper, "origin": e.origin,
                      "recipes": [r["source"] for r in e.recipes]} for e in entries])
         return 0
-    from rich.table import Table
-
-    table = Table(box=None, header_style="bold")
-    for col in ("id", "[n, k, d]", "origin", "recipes", "first recipe"):
-        table.add_column(col)
+    rows = [("id", "[n, k, d]", "origin", "recipes", "first recipe")]
     for e in entries:
         first = e.recipes[0] if e.recipes else None
-        table.add_row(str(e.id), _label(e), e.origin or "", str(len(e.recipes)),
-                      _recipe_text(first) if first else "")
-    console.print(table)
+        rows.append((str(e.id), _label(e), e.origin or "", str(len(e.recipes)),
+                     _recipe_text(first) if first else ""))
+    widths = [max(len(r[i]) for r in rows) for i in range(4)]
+    for r in rows:
+        line = "  ".join(f"{r[i]:<{widths[i]}}" for i in range(4)) + "  " + r[4]
+        console.print(line.rstrip(), soft_wrap=True)
     console.print(f"{len(entries)} entr{'y' if len(entries) == 1 else 'ies'}")
     return 0
 
@@ -316,7 +320,7 @@ def _table(cat, args) -> int:
                                            for k in range(1, n + 1)))
         sys.stdout.write("\n".join(out) + "\n")
         console.print("a cell d is the best proved distance and meets the best upper bound; "
-                      "d/b means the catalog has d and the bound is b")
+                      "d/b means the catalog has d and the bound is b", soft_wrap=True)
     console.print(f"{len(rows) - len(below)} of {len(rows)} cells meet the bound, "
                   f"{len(below)} below")
     return 0

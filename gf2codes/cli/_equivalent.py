@@ -10,7 +10,12 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from ._common import add_json_flag, console, print_json
+from rich.console import Console
+
+from ._common import add_json_flag, print_json
+
+# Plain text: "p[j]" and "[n, k]" are not markup.
+console = Console(highlight=False, markup=False)
 
 __all__ = ["register", "run"]
 

@@ -1,0 +1,1522 @@
+"""The local catalog: an SQLite store of proved codes, their recipes and equivalences.
+
+A catalog answers "what is the shortest known code for (k, d)?" (and the (n, k) and
+(n, d) variants) in milliseconds, remembers every recipe that produced each code, and
+never loses an entry.
+
+Store
+-----
+One SQLite file (standard-library :mod:`sqlite3`, write-ahead log, ``synchronous =
+FULL``, a busy timeout, every write in one ``BEGIN IMMEDIATE`` transaction). Its
+location is, in order of precedence: the ``path`` argument (``--catalog PATH`` on the
+command line), the environment variable ``GF2CODES_CATALOG``, and
+``$XDG_DATA_HOME/gf2codes/catalog.sqlite`` (``~/.local/share/gf2codes/catalog.sqlite``
+when ``XDG_DATA_HOME`` is unset). The file is marked with an SQLite ``application_id``
+and carries its schema version in ``user_version``; :data:`MIGRATIONS` lists the steps
+from one version to the next and opening an older catalog applies the missing ones in
+one transaction. A file that is not a catalog, or a catalog of a newer schema, raises
+:class:`~gf2codes.exceptions.CatalogError`.
+
+Tables: ``entry`` (one row per equivalence class of codes: ``n``, ``k``, the proved
+interval ``d_lower .. d_upper`` -- equal when d is proved --, the generator as packed
+reduced-echelon rows, the weight distribution, the equivalence invariant, the proof,
+when and by which gf2codes version it was added, and its origin: ``user`` or
+``shipped``), ``recipe`` (every way the code was obtained: source, steps, seed and the
+coordinate permutation from the recipe's code to the stored generator) and ``meta``.
+
+The shipped seed catalog
+------------------------
+The repository's ``catalog/*.jsonl`` files (written by ``scripts/build_catalog.py``)
+are **imported on first use**: the transaction that creates a new catalog file also
+imports them, marked ``origin = 'shipped'``. One store means one set of ids, merging
+by equivalence across shipped and user entries, and ``remove`` working on everything.
+The records' weight distributions and invariants are trusted at that import (the test
+suite re-proves every shipped record), so creating a catalog takes a fraction of a
+second. ``open_catalog(path, shipped=False)`` creates an empty catalog instead. A
+catalog created before a newer seed was shipped can take it with
+:meth:`Catalog.import_shipped` (idempotent: nothing is stored twice).
+
+Equivalence
+-----------
+Two codes are (permutation-)equivalent when a permutation of coordinates maps one onto
+the other. The invariant (:func:`equivalence_invariant`) combines the weight
+distribution with a Weisfeiler-Lehman hash [2]_ of the bipartite graph whose nodes are
+the coordinates and the *spanning light words* -- all nonzero codewords of weight at
+most ``w*``, where ``w*`` is the least weight such that those words span the code. That
+set is defined by the code alone, so a permutation of coordinates maps it onto the set
+of the permuted code, and since it spans, a graph isomorphism that maps coordinates to
+coordinates gives a permutation mapping one code onto the other: the exact test
+(:func:`are_equivalent`) is a labelled graph isomorphism test (VF2++, [3]_), followed
+by a check that the permutation found really maps the code. The graph is built on the
+side of smaller dimension, the code or its dual (a permutation maps ``C`` to ``C'``
+exactly when it maps the duals), so that every code of length at most 44 can be
+enumerated. Codes whose smaller side has dimension above 20, or more than
+:data:`MAX_GRAPH_WORDS` spanning light words, get a coarse invariant and are merged
+only when they are the same subspace: a missed merge stores a code twice, never wrongly
+joins two.
+
+Propagation
+-----------
+From a stored ``[n, k, d]`` entry the standard rules [1]_ give proved codes without
+any computation: shorten ``[n-1, k-1, >= d]``, subcode ``[n, k-1, >= d]``, puncture
+``[n-1, k, >= d-1]`` (at most ``d-1`` times, so the dimension stays), extend ``[n+1, k,
+d+1]`` for odd ``d``, pad with a zero coordinate ``[n+1, k, d]``. :meth:`Catalog.best`
+and :meth:`Catalog.table` answer with the best such derived code when it beats every
+stored one; a derived answer says so (``Entry.derived_from``) and is rebuilt on request
+from its recipe: the stored generator, shortened at its last pivot columns, punctured
+at its last coordinates, then extended and padded (:func:`pad`; :func:`replay` runs
+recipes that contain the ``pad`` step, which :func:`gf2codes.derive.rebuild` does not
+know). The distance of a derived answer is the proved lower bound the rules give.
+
+Records (``export`` / ``import`` and ``catalog/*.jsonl``)
+--------------------------------------------------------
+JSON lines, one entry per line::
+
+    {"record": "gf2codes/catalog-entry", "version": 1, "n": 7, "k": 4,
+     "d": 3, "d_lower": 3, "d_upper": 3, "generator": ["hex:8b", ...],
+     "weights": [1, 0, 0, 7, 7, 0, 0, 1], "invariant": "wl1:code:...",
+     "proof": {"method": "weight distribution"},
+     "recipes": [{"source": "family", "recipe": [{"family": "hamming", "m": 3}]}]}
+
+``d`` is null unless proved. A generator row is either a string of ``0``/``1``
+characters, one per coordinate, or ``"hex:"`` followed by ``ceil(n/4)`` lower-case
+hexadecimal digits: coordinate 0 is the most significant bit of the first digit,
+coordinate 4 that of the second, and so on; the unused low bits of the last digit are
+zero (so the row ``1101001`` is ``hex:d2``). Optional keys: ``added`` (ISO 8601 UTC),
+``gf2codes`` (the version that added it), ``origin``; recipe items may carry ``seed``,
+``permutation``, ``added`` and ``gf2codes``. Plain ``gf2codes/code`` records
+(:mod:`gf2codes.formats`) are accepted by ``import`` too.
+
+References
+----------
+.. [1] F. J. MacWilliams and N. J. A. Sloane, *The Theory of Error-Correcting Codes*,
+   North-Holland, 1977, ch. 1 section 9 (puncturing, shortening, extending).
+.. [2] N. Shervashidze, P. Schweitzer, E. J. van Leeuwen, K. Mehlhorn and K. M.
+   Borgwardt, "Weisfeiler-Lehman graph kernels", *J. Mach. Learn. Res.* 12 (2011)
+   2539-2561.
+.. [3] A. Jüttner and P. Madarasi, "VF2++ -- An improved subgraph isomorphism
+   algorithm", *Discrete Applied Mathematics* 242 (2018) 69-81.
+.. [4] W. C. Huffman and V. Pless, *Fundamentals of Error-Correcting Codes*, Cambridge
+   University Press, 2003, section 1.6 (permutation equivalence).
+"""
+
+from __future__ import annotations
+
+import contextlib
+import hashlib
+import json
+import math
+import os
+import sqlite3
+from collections.abc import Iterable, Iterator, Mapping, Sequence
+from dataclasses import dataclass, field
+from datetime import datetime, timezone
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+
+from . import linalg
+from ._version import __version__
+from .code import Code
+from .exceptions import CatalogError, ParameterError, ParseError, check_int
+
+__all__ = [
+    "SCHEMA_VERSION",
+    "MIGRATIONS",
+    "ENTRY_RECORD_KIND",
+    "MAX_GRAPH_WORDS",
+    "Catalog",
+    "Entry",
+    "Equivalence",
+    "CodeFacts",
+    "ImportReport",
+    "open_catalog",
+    "default_catalog_path",
+    "shipped_catalog_dir",
+    "equivalence_invariant",
+    "code_facts",
+    "are_equivalent",
+    "pad",
+    "replay",
+    "derivation_steps",
+    "row_to_hex",
+    "hex_to_row",
+    "entry_record",
+    "parse_entry_record",
+]
+
+#: Version of the database schema this gf2codes writes (``PRAGMA user_version``).
+SCHEMA_VERSION = 2
+#: ``PRAGMA application_id`` of a gf2codes catalog (the bytes ``g2cc``).
+APPLICATION_ID = 0x67326363
+#: ``record`` value of an exported catalog entry.
+ENTRY_RECORD_KIND = "gf2codes/catalog-entry"
+ENTRY_RECORD_VERSION = 1
+#: Spanning light words above this count make the exact equivalence test too costly.
+MAX_GRAPH_WORDS = 6000
+#: Largest dimension of the smaller side (code or dual) that is enumerated.
+_MAX_SIDE_DIM = 20
+#: Weight distributions are computed when ``2^min(k, n-k)`` is at most this.
+_MAX_WEIGHT_WORDS = 1 << 30
+_BUSY_SECONDS = 60.0
+_INVARIANT_SCHEME = "wl1"
+
+#: ``MIGRATIONS[v]`` takes a catalog from schema version ``v`` to ``v + 1``.
+MIGRATIONS: tuple[tuple[str, ...], ...] = (
+    # 0 -> 1: the first schema.
+    (
+        """CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL)""",
+        """CREATE TABLE entry (
+            id INTEGER PRIMARY KEY AUTOINCREMENT,
+            n INTEGER NOT NULL CHECK (n >= 1),
+            k INTEGER NOT NULL CHECK (k >= 1 AND k <= n),
+            d_lower INTEGER NOT NULL CHECK (d_lower >= 1),
+            d_upper INTEGER NOT NULL CHECK (d_upper >= d_lower),
+            generator BLOB NOT NULL,
+            subspace TEXT NOT NULL UNIQUE,
+            weights TEXT,
+            invariant TEXT NOT NULL,
+            proof TEXT,
+            added_at TEXT NOT NULL,
+            added_by TEXT NOT NULL)""",
+        """CREATE TABLE recipe (
+            id INTEGER PRIMARY KEY AUTOINCREMENT,
+            entry_id INTEGER NOT NULL REFERENCES entry(id) ON DELETE CASCADE,
+            source TEXT NOT NULL,
+            steps TEXT,
+            seed INTEGER,
+            permutation TEXT,
+            fingerprint TEXT NOT NULL,
+            added_at TEXT NOT NULL,
+            added_by TEXT NOT NULL,
+            UNIQUE (entry_id, fingerprint))""",
+    ),
+    # 1 -> 2: where an entry came from; indexes for the queries of best and table.
+    (
+        """ALTER TABLE entry ADD COLUMN origin TEXT NOT NULL DEFAULT 'user'""",
+        """CREATE INDEX entry_nk ON entry (n, k)""",
+        """CREATE INDEX entry_kd ON entry (k, d_lower)""",
+        """CREATE INDEX entry_invariant ON entry (invariant)""",
+        """CREATE INDEX recipe_entry ON recipe (entry_id)""",
+    ),
+)
+assert len(MIGRATIONS) == SCHEMA_VERSION
+
+
+def _now() -> str:
+    return datetime.now(timezone.utc).replace(microsecond=0).isoformat().replace("+00:00", "Z")
+
+
+def _dumps(obj: Any) -> str:
+    return json.dumps(obj, sort_keys=True, separators=(",", ":"))
+
+
+# ------------------------------------------------------------------ locations
+def default_catalog_path() -> Path:
+    """Where the catalog lives unless told otherwise: ``GF2CODES_CATALOG`` or the XDG path."""
+    env = os.environ.get("GF2CODES_CATALOG")
+    if env:
+        return Path(env).expanduser()
+    base = os.environ.get("XDG_DATA_HOME") or os.path.join(os.path.expanduser("~"),
+                                                           ".local", "share")
+    return Path(base) / "gf2codes" / "catalog.sqlite"
+
+
+def shipped_catalog_dir() -> Path | None:
+    """The folder of the shipped seed records, if present.
+
+    ``GF2CODES_SHIPPED_CATALOG`` (a folder, or ``none``) overrides; otherwise the
+    repository's ``catalog/`` beside the package (a source checkout), else the copy
+    installed with the package as ``gf2codes._seed``.
+    """
+    env = os.environ.get("GF2CODES_SHIPPED_CATALOG")
+    if env:
+        return Path(env) if env.lower() != "none" else None
+    here = Path(__file__).resolve().parent.parent / "catalog"
+    if here.is_dir():
+        return here
+    installed = Path(__file__).resolve().parent / "_seed"
+    return installed if installed.is_dir() else None
+
+
+# ------------------------------------------------------------------ hex rows
+def row_to_hex(bits: Sequence[int] | np.ndarray) -> str:
+    """A 0/1 row as ``"hex:..."``: coordinate 0 is the most significant bit of digit 1.
+
+    >>> row_to_hex([1, 1, 0, 1, 0, 0, 1])
+    'hex:d2'
+    """
+    b = np.asarray(bits, dtype=np.uint8)
+    n = b.size
+    padded = np.zeros(-(-n // 4) * 4, dtype=np.uint8)
+    padded[:n] = b
+    digits = padded.reshape(-1, 4) @ np.array([8, 4, 2, 1])
+    return "hex:" + "".join("0123456789abcdef"[int(x)] for x in digits)
+
+
+def hex_to_row(text: str, n: int) -> np.ndarray:
+    """Inverse of :func:`row_to_hex` for a row of ``n`` coordinates.
+
+    Raises
+    ------
+    ParseError
+        If the digits are not hexadecimal, their count is not ``ceil(n/4)``, or a
+        padding bit is set.
+
+    >>> hex_to_row('hex:d2', 7).tolist()
+    [1, 1, 0, 1, 0, 0, 1]
+    """
+    body = text[4:] if text.startswith("hex:") else text
+    if len(body) != -(-n // 4):
+        raise ParseError(f"<record>: a hex row of {n} coordinates needs {-(-n // 4)} "
+                         f"digits, not {len(body)}.")
+    try:
+        values = [int(c, 16) for c in body]
+    except ValueError:
+        raise ParseError(f"<record>: {text!r} is not a hex row.") from None
+    bits = np.array([(v >> (3 - i)) & 1 for v in values for i in range(4)], dtype=np.uint8)
+    if bits[n:].any():
+        raise ParseError(f"<record>: the hex row {text!r} sets padding bits beyond "
+                         f"coordinate {n - 1}.")
+    return bits[:n]
+
+
+# ------------------------------------------------------------------ invariants
+@dataclass
+class CodeFacts:
+    """What the catalog computes about a code before storing it.
+
+    Attributes
+    ----------
+    subspace : str
+        Digest of ``n`` and the reduced echelon generator: equal exactly for equal codes.
+    weights : list of int or None
+        The weight distribution ``[A_0, ..., A_n]`` when it was affordable.
+    invariant : str
+        The equivalence invariant; equal for equivalent codes.
+    side : str
+        ``"code"`` or ``"dual"``: which one the light-word graph was built from
+        (``"full"`` for ``GF(2)^n``, ``"coarse"`` when none was built).
+    light : numpy.ndarray or None
+        The spanning light words of ``side``, packed.
+    w_star : int or None
+        Their largest weight.
+    """
+
+    subspace: str
+    weights: list[int] | None
+    invariant: str
+    side: str
+    light: np.ndarray | None = field(default=None, repr=False)
+    w_star: int | None = None
+    _graph: Any = field(default=None, repr=False)
+
+    @property
+    def d(self) -> int | None:
+        """The minimum distance, read off the weight distribution (None if unknown)."""
+        if self.weights is None:
+            return None
+        return next((i for i, a in enumerate(self.weights) if i and a), None)
+
+
+def _subspace_digest(code: Code) -> str:
+    rows = linalg.rref(code.packed_generator, n=code.n).sorted().rows
+    h = hashlib.sha256(f"{code.n}:{code.k}:".encode())
+    h.update(np.ascontiguousarray(rows, dtype="<u8").tobytes())
+    return h.hexdigest()[:32]
+
+
+def _all_words(basis: np.ndarray) -> np.ndarray:
+    words = np.zeros((1, basis.shape[1]), dtype=np.uint64)
+    for row in basis:
+        words = np.concatenate([words, words ^ row[None, :]])
+    return words
+
+
+def _light_graph(light: np.ndarray, weights: np.ndarray, n: int):
+    import networkx as nx
+
+    g = nx.Graph()
+    g.add_nodes_from((j, {"label": "c"}) for j in range(n))
+    g.add_nodes_from((n + i, {"label": f"w{int(w)}"}) for i, w in enumerate(weights))
+    rows, cols = np.nonzero(linalg.unpack(light, n))
+    g.add_edges_from(zip((n + rows).tolist(), cols.tolist(), strict=True))
+    return g
+
+
+def code_facts(code: Code) -> CodeFacts:
+    """Compute the subspace digest, weight distribution and equivalence invariant.
+
+    >>> from gf2codes.families import hamming
+    >>> f = code_facts(hamming(3)); f.weights, f.side, f.w_star
+    ([1, 0, 0, 7, 7, 0, 0, 1], 'dual', 4)
+    """
+    from .weights import macwilliams_transform, weight_distribution
+
+    subspace = _subspace_digest(code)
+    n, k = code.n, code.k
+    if k == n:
+        weights = [math.comb(n, i) for i in range(n + 1)]
+        return CodeFacts(subspace, weights, f"{_INVARIANT_SCHEME}:full:{n}", "full")
+    side_name, side = ("code", code) if k <= n - k else ("dual", code.dual())
+    if side.k > _MAX_SIDE_DIM:
+        weights = None
+        if (1 << side.k) <= _MAX_WEIGHT_WORDS:
+            weights = weight_distribution(code, max_codewords=None)
+        digest = "none" if weights is None else hashlib.sha256(
+            _dumps(weights).encode()).hexdigest()[:16]
+        return CodeFacts(subspace, weights, f"coarse:{n}:{k}:{digest}", "coarse")
+    words = _all_words(side.packed_generator)
+    wts = np.bitwise_count(words).sum(axis=1).astype(np.int64)
+    side_dist = np.bincount(wts, minlength=n + 1).tolist()
+    weights = side_dist if side_name == "code" else [
+        int(x) for x in macwilliams_transform(side_dist, n)]
+    order = np.argsort(wts, kind="stable")
+    levels = sorted({int(w) for w in wts if w})
+    light = w_star = None
+    for w in levels:
+        sel = order[(wts[order] > 0) & (wts[order] <= w)]
+        if linalg.rref(words[sel], n=n).rank == side.k:
+            light, w_star = np.ascontiguousarray(words[sel]), w
+            break
+    assert light is not None  # all nonzero words span
+    wdig = hashlib.sha256(_dumps(weights).encode()).hexdigest()[:16]
+    if light.shape[0] > MAX_GRAPH_WORDS:
+        return CodeFacts(subspace, weights, f"coarse:{n}:{k}:{wdig}:{light.shape[0]}",
+                         "coarse")
+    import networkx as nx
+
+    graph = _light_graph(light, wts[sel], n)
+    wl = nx.weisfeiler_lehman_graph_hash(graph, node_attr="label", iterations=3)
+    inv = f"{_INVARIANT_SCHEME}:{side_name}:{n}:{k}:{w_star}:{light.shape[0]}:{wdig}:{wl}"
+    return CodeFacts(subspace, weights, inv, side_name, light, w_star, graph)
+
+
+def equivalence_invariant(code: Code) -> str:
+    """The equivalence invariant of ``code`` (equal for permutation-equivalent codes).
+
+    >>> from gf2codes.families import hamming, cyclic
+    >>> equivalence_invariant(hamming(3)) == equivalence_invariant(cyclic(7, "x^3+x+1"))
+    True
+    """
+    return code_facts(code).invariant
+
+
+@dataclass(frozen=True)
+class Equivalence:
+    """The answer of :func:`are_equivalent`.
+
+    Attributes
+    ----------
+    equivalent : bool or None
+        True (proved, with :attr:`permutation`), False (proved, with :attr:`reason`), or
+        None when the codes are too large for the exact test.
+    permutation : list of int or None
+        ``permutation[j]`` is the coordinate of the second code that coordinate ``j`` of
+        the first code goes to.
+    reason : str
+        Why: a one-line statement.
+    """
+
+    equivalent: bool | None
+    permutation: list[int] | None
+    reason: str
+
+    def __bool__(self) -> bool:
+        return bool(self.equivalent)
+
+
+def _permuted(code: Code, perm: Sequence[int]) -> Code:
+    G = np.zeros((code.k, code.n), dtype=np.uint8)
+    G[:, np.asarray(perm, dtype=np.int64)] = code.G
+    return Code(G)
+
+
+def _first_difference(a: Sequence[int], b: Sequence[int]) -> str:
+    i = next(i for i, (x, y) in enumerate(zip(a, b, strict=True)) if x != y)
+    return f"A_{i} = {a[i]} and {b[i]}"
+
+
+_MATCH_BUDGET = 20000
+
+
+class _OutOfBudget(Exception):
+    pass
+
+
+def _refine(MA: np.ndarray, MB: np.ndarray, ca: np.ndarray, cb: np.ndarray):
+    """Joint colour refinement of two coordinate / light-word incidence matrices.
+
+    Colours are named by their signatures over both graphs at once, so equal colours
+    mean equal signatures; returns the stable coordinate colours, or None as soon as
+    the two colourings have different class sizes (then no isomorphism respects them).
+    """
+    m, n = MA.shape
+    ra, ja = np.nonzero(MA)
+    rb, jb = np.nonzero(MB)
+    wa = np.zeros(m, dtype=np.int64)
+    wb = np.zeros(m, dtype=np.int64)
+    classes = -1
+    while True:
+        sa = np.sort(np.where(MA, ca[None, :] + 1, 0), axis=1)
+        sb = np.sort(np.where(MB, cb[None, :] + 1, 0), axis=1)
+        _, inv = np.unique(np.vstack([np.column_stack([wa, sa]), np.column_stack([wb, sb])]),
+                           axis=0, return_inverse=True)
+        inv = inv.reshape(-1)
+        wa, wb = inv[:m], inv[m:]
+        nw = int(inv.max()) + 1
+        if not np.array_equal(np.bincount(wa, minlength=nw), np.bincount(wb, minlength=nw)):
+            return None
+        ha = np.zeros((n, nw), dtype=np.int64)
+        hb = np.zeros((n, nw), dtype=np.int64)
+        np.add.at(ha, (ja, wa[ra]), 1)
+        np.add.at(hb, (jb, wb[rb]), 1)
+        _, inv = np.unique(np.vstack([np.column_stack([ca, ha]), np.column_stack([cb, hb])]),
+                           axis=0, return_inverse=True)
+        inv = inv.reshape(-1)
+        ca, cb = inv[:n], inv[n:]
+        nc = int(inv.max()) + 1
+        if not np.array_equal(np.bincount(ca, minlength=nc), np.bincount(cb, minlength=nc)):
+            return None
+        if nc + nw == classes:
+            return ca, cb
+        classes = nc + nw
+
+
+def _match(MA: np.ndarray, MB: np.ndarray, a: Code, b: Code) -> list[int] | None:
+    """A coordinate permutation mapping code ``a`` onto ``b``, or None if there is none.
+
+    Individualisation and refinement on the incidence of coordinates and spanning light
+    words: fix one coordinate of ``a`` to each candidate of ``b`` in turn, refine, and
+    recurse until every coordinate has its own colour; the permutation is then checked
+    on the codes. The branch that follows a true equivalence always survives refinement,
+    so exhausting the tree proves that there is none.
+    """
+    n = a.n
+    budget = [_MATCH_BUDGET]
+
+    def search(ca: np.ndarray, cb: np.ndarray) -> list[int] | None:
+        budget[0] -= 1
+        if budget[0] < 0:
+            raise _OutOfBudget
+        refined = _refine(MA, MB, ca, cb)
+        if refined is None:
+            return None
+        ca, cb = refined
+        sizes = np.bincount(ca)
+        if sizes.max() == 1:
+            where_b = np.empty(sizes.size, dtype=np.int64)
+            where_b[cb] = np.arange(n)
+            perm = where_b[ca].tolist()
+            return perm if _permuted(a, perm) == b else None
+        cls = int(np.flatnonzero(sizes == sizes[sizes > 1].min())[0])
+        j = int(np.flatnonzero(ca == cls)[0])
+        fresh = int(max(ca.max(), cb.max())) + 1
+        for t in np.flatnonzero(cb == cls):
+            ca2, cb2 = ca.copy(), cb.copy()
+            ca2[j] = cb2[t] = fresh
+            found = search(ca2, cb2)
+            if found is not None:
+                return found
+        return None
+
+    zero = np.zeros(n, dtype=np.int64)
+    return search(zero, zero.copy())
+
+
+def are_equivalent(a: Code, b: Code, *, facts_a: CodeFacts | None = None,
+                   facts_b: CodeFacts | None = None) -> Equivalence:
+    """Decide whether a permutation of coordinates maps ``a`` onto ``b``.
+
+    See the module notes: the spanning light words of the smaller side give two
+    bipartite graphs that are isomorphic (coordinates to coordinates) exactly when the
+    codes are equivalent; the permutation found is checked on the codes themselves.
+
+    >>> from gf2codes.families import hamming, cyclic
+    >>> r = are_equivalent(hamming(3), cyclic(7, "x^3+x+1")); r.equivalent
+    True
+    """
+    if a.n != b.n:
+        return Equivalence(False, None, f"the lengths differ ({a.n} and {b.n})")
+    if a.k != b.k:
+        return Equivalence(False, None, f"the dimensions differ ({a.k} and {b.k})")
+    if a == b:
+        return Equivalence(True, list(range(a.n)), "the codes are the same subspace")
+    fa = facts_a or code_facts(a)
+    fb = facts_b or code_facts(b)
+    if fa.side == "full":
+        return Equivalence(True, list(range(a.n)), "both are the whole space")
+    if fa.weights is not None and fb.weights is not None and fa.weights != fb.weights:
+        return Equivalence(False, None, "the weight distributions differ ("
+                           + _first_difference(fa.weights, fb.weights) + ")")
+    if fa.side == "coarse" or fb.side == "coarse":
+        return Equivalence(None, None, "too large for the exact test (the smaller of the "
+                           "code and its dual has too many codewords or light words)")
+    side = "code" if fa.side == "code" else "dual code"
+    if fa.w_star != fb.w_star or fa.light.shape[0] != fb.light.shape[0]:
+        return Equivalence(False, None, f"the light words spanning the {side} differ "
+                           f"(weights <= {fa.w_star}: {fa.light.shape[0]} words; weights "
+                           f"<= {fb.w_star}: {fb.light.shape[0]} words)")
+    if fa.invariant != fb.invariant:
+        return Equivalence(False, None, "the Weisfeiler-Lehman hashes of the graphs of "
+                           f"coordinates and light words of the {side} differ")
+    try:
+        perm = _match(linalg.unpack(fa.light, a.n), linalg.unpack(fb.light, b.n), a, b)
+    except _OutOfBudget:
+        return Equivalence(None, None, "undecided: the exact test gave up after "
+                           f"{_MATCH_BUDGET} branches")
+    if perm is None:
+        return Equivalence(False, None, f"no permutation maps the {fa.light.shape[0]} words "
+                           f"of weight <= {fa.w_star} spanning the {side} of one code onto "
+                           "those of the other (exact search by colour refinement)")
+    if _permuted(a, perm) != b:  # pragma: no cover - would be a bug in the argument
+        raise AssertionError("the graph isomorphism does not map the codes")
+    return Equivalence(True, perm, f"a permutation maps the {fa.light.shape[0]} words of "
+                       f"weight <= {fa.w_star} spanning the {side} onto each other")
+
+
+# ------------------------------------------------------------------ pad and replay
+def pad(code: Code, count: int = 1) -> Code:
+    """Append ``count`` zero coordinates: ``[n + count, k, d]`` (d unchanged).
+
+    The recipe gets the step ``{"op": "pad", "count": count}``, which :func:`replay`
+    understands.
+
+    >>> from gf2codes.families import hamming
+    >>> C = pad(hamming(3), 2); (C.n, C.k, C.d_lower, C.d_upper)
+    (9, 4, 3, 3)
+    """
+    from .derive import recipe_of
+
+    count = check_int("count", count, minimum=1)
+    G = np.hstack([code.G, np.zeros((code.k, count), dtype=np.uint8)])
+    return Code(G, name=f"{code.name}, padded by {count}" if code.name else None,
+                recipe=recipe_of(code) + [{"op": "pad", "count": count}],
+                d_lower=code.d_lower, d_upper=code.d_upper)
+
+
+def replay(recipe: Sequence[Mapping[str, Any]]) -> Code:
+    """Rebuild a code from a recipe, like :func:`gf2codes.derive.rebuild`, with ``pad`` steps.
+
+    >>> from gf2codes.families import hamming
+    >>> replay(pad(hamming(3), 1).recipe).n
+    8
+    """
+    from .derive import rebuild, recipe_of
+
+    steps = [dict(s) for s in recipe]
+    cut = next((i for i, s in enumerate(steps) if s.get("op") == "pad"), None)
+    if cut is None:
+        return rebuild(steps)
+    code = pad(rebuild(steps[:cut]), steps[cut].get("count", 1))
+    rest = steps[cut + 1:]
+    if not rest:
+        return code
+    head = code.with_info(recipe=())  # a matrix step holding the padded generator
+    return replay(recipe_of(head) + rest).with_info(recipe=steps)
+
+
+def derivation_steps(code: Code, *, n: int, k: int, d_lower: int) -> list[dict[str, Any]]:
+    """The steps that take a stored ``[n0, k0, >= d_lower]`` code to ``[n, k]``.
+
+    Shorten at the last ``k0 - k`` pivot columns of the reduced echelon generator, then
+    puncture the last coordinates or extend (odd ``d_lower``) and pad, as
+    :meth:`Catalog.best` computed.
+    """
+    steps: list[dict[str, Any]] = []
+    s = code.k - k
+    n_mid = code.n
+    if s > 0:
+        pivots = [int(np.flatnonzero(r)[0]) for r in code.rref_generator]
+        steps.append({"op": "shorten", "coords": sorted(pivots[-s:])})
+        n_mid -= s
+    m = n - n_mid
+    if m < 0:
+        steps.append({"op": "puncture", "coords": list(range(n_mid + m, n_mid))})
+    elif m > 0:
+        if d_lower % 2:
+            steps.append({"op": "extend"})
+            m -= 1
+        if m:
+            steps.append({"op": "pad", "count": m})
+    return steps
+
+
+# ------------------------------------------------------------------ the closed form
+def _reach_d(N0, K0, L0, n: int, k: int):
+    """Proved d of the best derived ``[n, k]`` code from each entry (0 where none)."""
+    s = K0 - k
+    m = n - (N0 - s)
+    d = np.where(m <= 0, L0 + m, L0 + (L0 % 2))
+    ok = (s >= 0) & (d >= 1) & (k >= 1) & (k <= n)
+    return np.where(ok, d, 0)
+
+
+def _reach_n(N0, K0, L0, k: int, d: int):
+    """Least length of a derived ``[., k, >= d]`` code from each entry (huge where none)."""
+    s = K0 - k
+    big = np.iinfo(np.int64).max
+    n = np.where(L0 >= d, N0 - s - (L0 - d), np.where((L0 % 2 == 1) & (L0 + 1 == d),
+                                                      N0 - s + 1, big))
+    return np.where(s >= 0, n, big)
+
+
+def _reach_k(N0, K0, L0, n: int, d: int):
+    """Greatest dimension of a derived ``[n, ., >= d]`` code from each entry (0 where none)."""
+    r = N0 - n
+    p = np.minimum(np.maximum(r, 0), np.maximum(L0 - d, 0))
+    kk = np.where(r <= 0, K0, K0 - (r - p))
+    ok = (L0 >= d) | ((L0 % 2 == 1) & (L0 + 1 == d) & (r < 0))
+    return np.where(ok & (kk >= 1), kk, 0)
+
+
+# ------------------------------------------------------------------ entries
+class Entry:
+    """A catalog entry, stored or derived from a stored one by the propagation rules.
+
+    Attributes
+    ----------
+    id : int or None
+        The entry's id; None for a derived answer (see :attr:`base_id`).
+    n, k : int
+    d : int
+        A proved lower bound on the minimum distance; the minimum distance itself
+        when :attr:`proved`.
+    d_lower, d_upper : int or None
+        The proved interval (``d_upper`` is None for a derived answer).
+    proved : bool
+        True when ``d`` is the exact minimum distance.
+    recipes : list of dict
+        Each ``{"source", "recipe", "seed", "permutation", "added", "gf2codes"}``.
+    derived_from : str or None
+        None for a stored entry; for a derived answer, a description such as
+        ``"entry 12 [24, 12, 8]: shorten 2, puncture 1"``.
+    base_id : int or None
+        The stored entry a derived answer comes from (its own id for a stored one).
+    steps : list of dict
+        The derivation steps applied to the base entry's generator (empty if stored).
+    weights, invariant, proof, added_at, added_by, origin
+        As stored (None for a derived answer).
+    """
+
+    def __init__(self, *, id: int | None, n: int, k: int, d_lower: int,  # noqa: A002
+                 d_upper: int | None, recipes: list[dict[str, Any]],
+                 generator: np.ndarray | None = None, base: Entry | None = None,
+                 steps: list[dict[str, Any]] | None = None, weights: list[int] | None = None,
+                 invariant: str | None = None, proof: dict[str, Any] | None = None,
+                 added_at: str | None = None, added_by: str | None = None,
+                 origin: str | None = None) -> None:
+        self.id = id
+        self.n, self.k = n, k
+        self.d_lower, self.d_upper = d_lower, d_upper
+        self.d = d_lower
+        self.proved = d_upper is not None and d_lower == d_upper
+        self.recipes = recipes
+        self.weights, self.invariant, self.proof = weights, invariant, proof
+        self.added_at, self.added_by, self.origin = added_at, added_by, origin
+        self._generator = generator
+        self._base = base
+        self.steps = list(steps or [])
+        self.base_id = base.id if base is not None else id
+        self._code: Code | None = None
+        if base is None:
+            self.derived_from = None
+        else:
+            ops = ", ".join(_describe_step(s) for s in self.steps) or "unchanged"
+            self.derived_from = (f"entry {base.id} [{base.n}, {base.k}, {base.d}]: {ops}")
+
+    @property
+    def code(self) -> Code:
+        """The code (a derived one is rebuilt from its recipe on first access)."""
+        if self._code is None:
+            if self._base is None:
+                recipe = next((r["recipe"] for r in self.recipes
+                               if r.get("recipe") and r.get("permutation") is None
+                               and r["source"] != "search"), None)
+                self._code = Code.from_packed(self._generator, self.n, recipe=recipe or None,
+                                              d_lower=self.d_lower, d_upper=self.d_upper)
+            else:
+                from .derive import recipe_of
+
+                base = self._base.code.with_info(recipe=(), name=None)
+                start = recipe_of(base)
+                self._code = replay(start + self.steps).with_info(
+                    d_lower=self.d_lower, name=f"from catalog entry {self._base.id}")
+        return self._code
+
+    def to_dict(self) -> dict[str, Any]:
+        """A JSON-ready summary (the generator as 0/1 strings)."""
+        from .formats import rows_to_strings
+
+        return {
+            "id": self.id, "n": self.n, "k": self.k, "d": self.d if self.proved else None,
+            "d_lower": self.d_lower, "d_upper": self.d_upper, "proved": self.proved,
+            "derived_from": self.derived_from, "base_id": self.base_id, "steps": self.steps,
+            "generator": rows_to_strings(self.code.rref_generator if self._base is None
+                                         else self.code.G),
+            "weights": self.weights, "invariant": self.invariant, "proof": self.proof,
+            "recipes": self.recipes, "added": self.added_at, "gf2codes": self.added_by,
+            "origin": self.origin,
+        }
+
+    def __repr__(self) -> str:
+        dd = f"{self.d}" if self.proved else f">={self.d}"
+        tag = f" derived from {self.base_id}" if self.derived_from else ""
+        return f"<Entry {self.id} [{self.n}, {self.k}, {dd}]{tag}>"
+
+
+def _describe_step(step: Mapping[str, Any]) -> str:
+    op = step["op"]
+    if op in ("shorten", "puncture"):
+        return f"{op} {len(step['coords'])}"
+    if op == "pad":
+        return f"pad {step.get('count', 1)}"
+    return op
+
+
+@dataclass
+class ImportReport:
+    """What :meth:`Catalog.import_records` did.
+
+    ``added``: new entries; ``merged``: records that joined an existing entry (new
+    recipes or a tighter interval); ``unchanged``: records already present in full;
+    ``errors``: ``(line, message)`` for each line that was not imported.
+    """
+
+    added: int = 0
+    merged: int = 0
+    unchanged: int = 0
+    errors: list[tuple[int, str]] = field(default_factory=list)
+
+
+# ------------------------------------------------------------------ records
+def entry_record(entry: Entry, *, stamps: bool = True) -> dict[str, Any]:
+    """The JSON-lines record of a stored entry (``stamps``: include dates and versions)."""
+    rec: dict[str, Any] = {
+        "record": ENTRY_RECORD_KIND, "version": ENTRY_RECORD_VERSION,
+        "n": entry.n, "k": entry.k, "d": entry.d if entry.proved else None,
+        "d_lower": entry.d_lower, "d_upper": entry.d_upper,
+        "generator": [row_to_hex(r) for r in entry.code.rref_generator],
+        "weights": entry.weights, "invariant": entry.invariant, "proof": entry.proof,
+    }
+    recipes = []
+    for r in entry.recipes:
+        item = {"source": r["source"], "recipe": r["recipe"]}
+        for key in ("seed", "permutation"):
+            if r.get(key) is not None:
+                item[key] = r[key]
+        if stamps:
+            item["added"], item["gf2codes"] = r["added"], r["gf2codes"]
+        recipes.append(item)
+    rec["recipes"] = recipes
+    if stamps:
+        rec["added"], rec["gf2codes"], rec["origin"] = (entry.added_at, entry.added_by,
+                                                        entry.origin)
+    return rec
+
+
+@dataclass
+class _Parsed:
+    code: Code
+    d_lower: int
+    d_upper: int
+    proved: bool
+    weights: list[int] | None
+    invariant: str | None
+    proof: dict[str, Any] | None
+    recipes: list[dict[str, Any]]
+    added: str | None
+    added_by: str | None
+    origin: str | None
+
+
+def _rows(obj: Any, n: int | None, source: str) -> np.ndarray:
+    rows = obj.get("generator")
+    if not isinstance(rows, list) or not rows or not all(isinstance(r, str) for r in rows):
+        raise ParseError(f"{source}: 'generator' must be a non-empty list of strings.")
+    if all(r.startswith("hex:") for r in rows):
+        if not isinstance(n, int) or isinstance(n, bool) or n < 1:
+            raise ParseError(f"{source}: hex rows need a positive integer 'n'.")
+        try:
+            return np.array([hex_to_row(r, n) for r in rows])
+        except ParseError as exc:
+            raise ParseError(str(exc).replace("<record>", source)) from None
+    from .formats import parse_text_matrix
+
+    if any(r.startswith("hex:") for r in rows):
+        raise ParseError(f"{source}: mix of hex and 0/1 rows.")
+    return parse_text_matrix("\n".join(rows), source=f"{source} (generator)")
+
+
+def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: bool = True) -> int | None:
+    v = obj.get(key)
+    if v is None and null:
+        return None
+    if isinstance(v, bool) or not isinstance(v, int) or v < 1:
+        raise ParseError(f"{source}: {key!r} must be a positive integer"
+                         f"{' or null' if null else ''}, not {v!r}.")
+    return v
+
+
+def parse_entry_record(obj: Any, source: str = "<record>") -> _Parsed:
+    """Check and read one record (a catalog entry or a plain ``gf2codes/code`` record).
+
+    Raises
+    ------
+    ParseError
+        Naming ``source`` and what is wrong.
+    """
+    from .formats import RECORD_KIND, record_to_code
+
+    if not isinstance(obj, dict):
+        raise ParseError(f"{source}: a record must be a JSON object.")
+    kind = obj.get("record")
+    if kind == RECORD_KIND:
+        rec = record_to_code(obj, source)
+        d = _pos_int(obj, "d", source)
+        lo = d if d is not None else _pos_int(obj, "d_lower", source)
+        hi = d if d is not None else _pos_int(obj, "d_upper", source)
+        if lo is None:
+            raise ParseError(f"{source}: the record states neither 'd' nor 'd_lower'.")
+        recipe = list(rec.code.recipe)
+        return _Parsed(rec.code, lo, hi or lo, d is not None or lo == hi, None, None, None,
+                       [{"source": "import", "recipe": recipe or None}], None, None, None)
+    if kind != ENTRY_RECORD_KIND:
+        raise ParseError(f"{source}: 'record' must be {ENTRY_RECORD_KIND!r} or "
+                         f"{RECORD_KIND!r}, not {kind!r}.")
+    version = obj.get("version", ENTRY_RECORD_VERSION)
+    if not isinstance(version, int) or version > ENTRY_RECORD_VERSION:
+        raise ParseError(f"{source}: record version {version!r} is newer than this gf2codes "
+                         f"understands ({ENTRY_RECORD_VERSION}); upgrade gf2codes.")
+    n = _pos_int(obj, "n", source, null=False)
+    k = _pos_int(obj, "k", source, null=False)
+    try:
+        code = Code(_rows(obj, n, source))
+    except ParameterError as exc:
+        raise ParseError(f"{source}: {exc}") from None
+    if (code.n, code.k) != (n, k):
+        raise ParseError(f"{source}: the record says [n, k] = [{n}, {k}] but its generator "
+                         f"gives [{code.n}, {code.k}].")
+    d = _pos_int(obj, "d", source)
+    lo = _pos_int(obj, "d_lower", source)
+    hi = _pos_int(obj, "d_upper", source)
+    lo = lo if lo is not None else d
+    hi = hi if hi is not None else d
+    if lo is None or hi is None:
+        raise ParseError(f"{source}: the record must state 'd' or both 'd_lower' and "
+                         "'d_upper'.")
+    if d is not None and not lo == d == hi:
+        raise ParseError(f"{source}: 'd' = {d} disagrees with d_lower = {lo}, d_upper = {hi}.")
+    if lo > hi:
+        raise ParseError(f"{source}: d_lower = {lo} exceeds d_upper = {hi}.")
+    weights = obj.get("weights")
+    if weights is not None and (not isinstance(weights, list) or len(weights) != n + 1
+                                or not all(isinstance(a, int) and a >= 0 for a in weights)
+                                or sum(weights) != 1 << k):
+        raise ParseError(f"{source}: 'weights' must be {n + 1} counts summing to 2^{k}.")
+    recipes = obj.get("recipes") or []
+    if not isinstance(recipes, list) or not all(
+            isinstance(r, dict) and isinstance(r.get("source"), str) for r in recipes):
+        raise ParseError(f"{source}: 'recipes' must be a list of objects with a 'source'.")
+    for r in recipes:
+        steps = r.get("recipe")
+        if steps is not None and (not isinstance(steps, list)
+                                  or not all(isinstance(s, dict) for s in steps)):
+            raise ParseError(f"{source}: a recipe must be a list of steps (objects).")
+        perm = r.get("permutation")
+        if perm is not None and (not isinstance(perm, list) or sorted(perm) != list(range(n))):
+            raise ParseError(f"{source}: a recipe's 'permutation' must be a permutation of "
+                             f"0..{n - 1}.")
+    invariant = obj.get("invariant")
+    proof = obj.get("proof")
+    return _Parsed(code, lo, hi, lo == hi, weights,
+                   invariant if isinstance(invariant, str) else None,
+                   proof if isinstance(proof, dict) else None,
+                   [dict(r) for r in recipes] or [{"source": "import", "recipe": None}],
+                   obj.get("added"), obj.get("gf2codes"), obj.get("origin"))
+
+
+# ------------------------------------------------------------------ the store
+def open_catalog(path: str | os.PathLike[str] | None = None, *, shipped: bool = True
+                 ) -> Catalog:
+    """Open (creating if needed) the catalog at ``path`` or at :func:`default_catalog_path`.
+
+    Parameters
+    ----------
+    path : path-like, optional
+    shipped : bool
+        When the file is created, import the shipped seed records into it.
+
+    Raises
+    ------
+    CatalogError
+        If the file is not a catalog, is of a newer schema, or cannot be opened.
+    """
+    return Catalog(default_catalog_path() if path is None else Path(path), shipped=shipped)
+
+
+class Catalog:
+    """An open catalog (use :func:`open_catalog`). Also a context manager.
+
+    Every method that writes does so in one transaction: a crash or a kill leaves the
+    catalog as it was before the call or after it, never in between.
+    """
+
+    def __init__(self, path: str | os.PathLike[str], *, shipped: bool = True) -> None:
+        self.path = Path(path)
+        self._con = self._connect()
+        self._arrays: tuple[np.ndarray, ...] | None = None
+        self._arrays_version: int | None = None
+        self._init_schema(shipped)
+
+    # ---------------------------------------------------------------- opening
+    def _connect(self) -> sqlite3.Connection:
+        p = self.path
+        if p.is_dir():
+            raise CatalogError(f"{p}: is a folder, not a catalog file.")
+        if p.exists() and p.stat().st_size:
+            with open(p, "rb") as fh:
+                head = fh.read(16)
+            if head != b"SQLite format 3\x00":
+                raise CatalogError(f"{p}: not a gf2codes catalog (not an SQLite database).")
+        else:
+            try:
+                p.parent.mkdir(parents=True, exist_ok=True)
+            except OSError as exc:
+                raise CatalogError(f"{p}: cannot create the catalog's folder ({exc}).") from None
+        try:
+            con = sqlite3.connect(str(p), timeout=_BUSY_SECONDS, isolation_level=None)
+            con.execute(f"PRAGMA busy_timeout = {int(_BUSY_SECONDS * 1000)}")
+            con.execute("PRAGMA journal_mode = WAL")
+            con.execute("PRAGMA synchronous = FULL")
+            con.execute("PRAGMA foreign_keys = ON")
+        except sqlite3.DatabaseError as exc:
+            raise CatalogError(f"{p}: not a usable gf2codes catalog ({exc}).") from None
+        return con
+
+    def _init_schema(self, shipped: bool) -> None:
+        con = self._con
+        try:
+            app = con.execute("PRAGMA application_id").fetchone()[0]
+            version = con.execute("PRAGMA user_version").fetchone()[0]
+        except sqlite3.DatabaseError as exc:
+            self._con.close()
+            raise CatalogError(f"{self.path}: not a usable gf2codes catalog ({exc}).") from None
+        if app == APPLICATION_ID and version == SCHEMA_VERSION:
+            return
+        with self._write() as cur:
+            app = cur.execute("PRAGMA application_id").fetchone()[0]
+            version = cur.execute("PRAGMA user_version").fetchone()[0]
+            tables = cur.execute("SELECT count(*) FROM sqlite_master").fetchone()[0]
+            fresh = app == 0 and version == 0 and tables == 0
+            if not fresh and app != APPLICATION_ID:
+                raise CatalogError(f"{self.path}: an SQLite database, but not a gf2codes "
+                                   "catalog.")
+            if version > SCHEMA_VERSION:
+                raise CatalogError(
+                    f"{self.path}: catalog schema version {version} is newer than this "
+                    f"gf2codes ({__version__}) understands ({SCHEMA_VERSION}); upgrade gf2codes."
+                )
+            for v in range(version, SCHEMA_VERSION):
+                for statement in MIGRATIONS[v]:
+                    cur.execute(statement)
+            cur.execute(f"PRAGMA application_id = {APPLICATION_ID}")
+            cur.execute(f"PRAGMA user_version = {SCHEMA_VERSION}")
+            if fresh:
+                cur.execute("INSERT INTO meta VALUES ('created', ?), ('created_by', ?)",
+                            (_now(), __version__))
+                if shipped:
+                    self._import_shipped(cur)
+            else:
+                cur.execute("INSERT OR REPLACE INTO meta VALUES ('migrated', ?)",
+                            (f"{version}->{SCHEMA_VERSION} by {__version__} at {_now()}",))
+
+    @contextlib.contextmanager
+    def _write(self) -> Iterator[sqlite3.Cursor]:
+        cur = self._con.cursor()
+        try:
+            cur.execute("BEGIN IMMEDIATE")
+        except sqlite3.OperationalError as exc:
+            raise CatalogError(f"{self.path}: cannot write ({exc}).") from None
+        try:
+            yield cur
+        except BaseException:
+            cur.execute("ROLLBACK")
+            raise
+        else:
+            cur.execute("COMMIT")
+        finally:
+            self._arrays = None
+
+    def close(self) -> None:
+        """Close the database connection."""
+        if self._con is not None:
+            self._con.close()
+            self._con = None  # type: ignore[assignment]
+
+    def __enter__(self) -> Catalog:
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        self.close()
+
+    # ---------------------------------------------------------------- reading
+    def _row_entry(self, row: sqlite3.Row | tuple) -> Entry:
+        (eid, n, k, lo, hi, gen, weights, inv, proof, added, by, origin) = row
+        words = linalg.words_for(n)
+        generator = np.frombuffer(gen, dtype="<u8").astype(np.uint64).reshape(-1, words)
+        return Entry(id=eid, n=n, k=k, d_lower=lo, d_upper=hi, recipes=self._recipes(eid),
+                     generator=generator, weights=None if weights is None else
+                     json.loads(weights), invariant=inv,
+                     proof=None if proof is None else json.loads(proof), added_at=added,
+                     added_by=by, origin=origin)
+
+    _COLUMNS = ("id, n, k, d_lower, d_upper, generator, weights, invariant, proof, added_at, "
+                "added_by, origin")
+
+    def _recipes(self, eid: int) -> list[dict[str, Any]]:
+        out = []
+        for source, steps, seed, perm, added, by in self._con.execute(
+                "SELECT source, steps, seed, permutation, added_at, added_by FROM recipe "
+                "WHERE entry_id = ? ORDER BY id", (eid,)):
+            out.append({"source": source, "recipe": None if steps is None else json.loads(steps),
+                        "seed": seed, "permutation": None if perm is None else json.loads(perm),
+                        "added": added, "gf2codes": by})
+        return out
+
+    def get(self, entry_id: int) -> Entry:
+        """The stored entry with this id.
+
+        Raises
+        ------
+        CatalogError
+            If there is none.
+        """
+        entry_id = check_int("id", entry_id, minimum=1)
+        row = self._con.execute(f"SELECT {self._COLUMNS} FROM entry WHERE id = ?",
+                                (entry_id,)).fetchone()
+        if row is None:
+            raise CatalogError(f"{self.path}: no entry with id {entry_id}.")
+        return self._row_entry(row)
+
+    def __len__(self) -> int:
+        return self._con.execute("SELECT count(*) FROM entry").fetchone()[0]
+
+    def entries(self, *, n: Any = None, k: Any = None, d: Any = None,
+                origin: str | None = None) -> list[Entry]:
+        """Stored entries, filtered: each of ``n``, ``k``, ``d`` is an int, a range or a
+        ``(low, high)`` pair (inclusive); ``d`` filters on the proved lower bound."""
+        where, params = [], []
+        for col, val in (("n", n), ("k", k), ("d_lower", d)):
+            if val is None:
+                continue
+            if isinstance(val, range):
+                lo, hi = val.start, val.stop - 1
+            elif isinstance(val, tuple):
+                lo, hi = val
+            else:
+                lo = hi = check_int(col, val)
+            where.append(f"{col} BETWEEN ? AND ?")
+            params += [lo, hi]
+        if origin is not None:
+            where.append("origin = ?")
+            params.append(origin)
+        sql = f"SELECT {self._COLUMNS} FROM entry"
+        if where:
+            sql += " WHERE " + " AND ".join(where)
+        sql += " ORDER BY n, k, d_lower DESC, id"
+        return [self._row_entry(r) for r in self._con.execute(sql, params).fetchall()]
+
+    def _load_arrays(self) -> tuple[np.ndarray, ...]:
+        version = self._con.execute("PRAGMA data_version").fetchone()[0]
+        total = self._con.execute("SELECT count(*), max(id) FROM entry").fetchone()
+        key = (version, total)
+        if self._arrays is None or self._arrays_version != key:
+            rows = self._con.execute("SELECT id, n, k, d_lower, d_upper FROM entry").fetchall()
+            a = np.array(rows, dtype=np.int64).reshape(-1, 5)
+            self._arrays = (a[:, 0], a[:, 1], a[:, 2], a[:, 3], a[:, 4])
+            self._arrays_version = key
+        return self._arrays
+
+    # ---------------------------------------------------------------- queries
+    def _pick(self, ids, N0, K0, L0, U0, dvals, n: int, k: int) -> Entry | None:
+        mask = dvals > 0
+        if not mask.any():
+            return None
+        best_d = dvals[mask].max()
+        cand = np.flatnonzero(dvals == best_d)
+        stored = (N0[cand] == n) & (K0[cand] == k)
+        cost = np.abs(K0[cand] - k) + np.abs(N0[cand] - n)
+        exact = L0[cand] == U0[cand]
+        order = np.lexsort((ids[cand], ~exact, cost, ~stored))
+        i = int(cand[order[0]])
+        base = self.get(int(ids[i]))
+        if stored[order[0]]:
+            return base
+        steps = derivation_steps(base.code, n=n, k=k, d_lower=base.d_lower)
+        return Entry(id=None, n=n, k=k, d_lower=int(best_d), d_upper=None,
+                     recipes=[], base=base, steps=steps)
+
+    def best(self, *, n: int | None = None, k: int | None = None,
+             d: int | None = None) -> Entry | None:
+        """The best known code for two of ``n``, ``k``, ``d`` (stored or derived).
+
+        * ``k`` and ``d``: the shortest code of dimension ``k`` with distance at least
+          ``d`` (among equally short ones, the greatest ``d``);
+        * ``n`` and ``k``: the greatest ``d``;
+        * ``n`` and ``d``: the greatest ``k`` (then the greatest ``d``).
+
+        A stored entry wins over a derived one of the same parameters. Returns None when
+        the catalog has nothing that qualifies.
+        """
+        given = {key for key, v in (("n", n), ("k", k), ("d", d)) if v is not None}
+        if len(given) != 2:
+            raise ParameterError("Give exactly two of 'n', 'k' and 'd', not "
+                                 f"{', '.join(sorted(given)) or 'none'}.")
+        ids, N0, K0, L0, U0 = self._load_arrays()
+        if ids.size == 0:
+            return None
+        if n is None:
+            k = check_int("k", k, minimum=1)
+            d = check_int("d", d, minimum=1)
+            lengths = _reach_n(N0, K0, L0, k, d)
+            n_best = int(lengths.min())
+            if n_best == np.iinfo(np.int64).max:
+                return None
+            n = n_best
+        elif k is None:
+            n = check_int("n", n, minimum=1)
+            d = check_int("d", d, minimum=1)
+            dims = _reach_k(N0, K0, L0, n, d)
+            if dims.max() < 1:
+                return None
+            k = int(dims.max())
+        n = check_int("n", n, minimum=1)
+        k = check_int("k", k, minimum=1, maximum=n)
+        return self._pick(ids, N0, K0, L0, U0, _reach_d(N0, K0, L0, n, k), n, k)
+
+    def table(self, lengths: Iterable[int]) -> list[dict[str, Any]]:
+        """For every ``n`` in ``lengths`` and ``1 <= k <= n``: the best proved ``d`` (stored
+        or derived, 0 when unknown), whether it is stored, and the best upper bound.
+
+        Each row: ``{"n", "k", "d", "exact", "stored", "entry", "bound", "bound_by",
+        "meets_bound"}``; ``entry`` is the stored id or the base id of a derived value.
+        """
+        from .bounds import best_upper
+
+        ids, N0, K0, L0, U0 = self._load_arrays()
+        rows = []
+        for n in lengths:
+            n = check_int("n", n, minimum=1)
+            for k in range(1, n + 1):
+                dv = _reach_d(N0, K0, L0, n, k) if ids.size else np.zeros(0, np.int64)
+                ub = best_upper(n, k)
+                row = {"n": n, "k": k, "d": 0, "exact": False, "stored": False,
+                       "entry": None, "bound": ub.d, "bound_by": ub.by, "meets_bound": False}
+                if dv.size and dv.max() > 0:
+                    best = int(dv.max())
+                    cand = np.flatnonzero(dv == best)
+                    here = cand[(N0[cand] == n) & (K0[cand] == k)]
+                    pick = int(here[0] if here.size else cand[0])
+                    row.update(d=best, stored=bool(here.size), entry=int(ids[pick]),
+                               exact=bool(here.size and L0[pick] == U0[pick]),
+                               meets_bound=best >= ub.d)
+                rows.append(row)
+        return rows
+
+    # ---------------------------------------------------------------- writing
+    def add(self, code: Code, *, d: int, proved: bool = True,
+            recipe: Sequence[Mapping[str, Any]] | None = None, source: str = "search",
+            seed: int | None = None, d_upper: int | None = None,
+            proof: Mapping[str, Any] | None = None) -> int:
+        """Store ``code`` (or merge it into an equivalent entry) and return the entry id.
+
+        Parameters
+        ----------
+        code : Code
+        d : int
+            The proved minimum distance, or (``proved=False``) a proved lower bound.
+        proved : bool
+            Whether ``d`` is the exact minimum distance.
+        recipe : list of dict, optional
+            How the code was made (default: ``code.recipe``).
+        source : str
+            ``"search"``, ``"family"``, ``"derivation"``, ``"file"``, ``"import"``...
+        seed : int, optional
+            The seed of a search.
+        d_upper : int, optional
+            With ``proved=False``: the weight of a codeword found (default: the best
+            upper bound of :mod:`gf2codes.bounds`).
+        proof : dict, optional
+            How d was proved (method, seconds...), kept with the entry.
+
+        Raises
+        ------
+        ParameterError
+            If ``d`` contradicts the code's weight distribution (when computed).
+        CatalogError
+            If it contradicts what the catalog proved about an equivalent code.
+        """
+        return self._add(code, d=d, proved=proved, recipe=recipe, source=source, seed=seed,
+                         d_upper=d_upper, proof=proof)[0]
+
+    def _add(self, code: Code, *, d: int, proved: bool, recipe, source: str, seed, d_upper,
+             proof) -> tuple[int, str]:
+        """:meth:`add`, also returning ``"added"``, ``"merged"`` or ``"unchanged"``."""
+        if not isinstance(code, Code):
+            raise ParameterError(f"Argument 'code' must be a Code, not {type(code).__name__}.")
+        d = check_int("d", d, minimum=1, maximum=code.n)
+        facts = code_facts(code)
+        lo, hi, proof_d = self._interval(code, facts, d, proved, d_upper, proof)
+        steps = list(recipe) if recipe is not None else (list(code.recipe) or None)
+        item = {"source": source, "recipe": steps, "seed": seed}
+        with self._write() as cur:
+            return self._store(cur, code, facts, lo, hi, proof_d, [item], None, None, "user")
+
+    @staticmethod
+    def _interval(code: Code, facts: CodeFacts, d: int, proved: bool, d_upper: int | None,
+                  proof: Mapping[str, Any] | None) -> tuple[int, int, dict | None]:
+        from .bounds import best_upper
+
+        true_d = facts.d
+        if true_d is not None:
+            if (proved and d != true_d) or d > true_d:
+                raise ParameterError(
+                    f"Argument 'd' is {d}{'' if proved else ' (a lower bound)'}, but the "
+                    f"weight distribution of this [{code.n}, {code.k}] code gives d = {true_d}."
+                )
+            method = dict(proof) if proof else {}
+            method.setdefault("method", "weight distribution")
+            return true_d, true_d, method
+        if proved:
+            return d, d, dict(proof) if proof else {"method": "stated by the caller"}
+        hi = d_upper if d_upper is not None else best_upper(code.n, code.k).d
+        hi = check_int("d_upper", hi, minimum=d)
+        return d, hi, dict(proof) if proof else None
+
+    def _find(self, cur: sqlite3.Cursor, code: Code, facts: CodeFacts
+              ) -> tuple[int | None, list[int] | None]:
+        row = cur.execute("SELECT id FROM entry WHERE subspace = ?", (facts.subspace,)).fetchone()
+        if row:
+            return row[0], None
+        if facts.side == "coarse":
+            return None, None
+        for (eid, gen, n) in cur.execute(
+                "SELECT id, generator, n FROM entry WHERE invariant = ? ORDER BY id",
+                (facts.invariant,)).fetchall():
+            if facts.side == "trusted":  # read from a record: compute the graph now
+                facts = code_facts(code)
+            other = Code.from_packed(np.frombuffer(gen, dtype="<u8").astype(np.uint64)
+                                     .reshape(-1, linalg.words_for(n)), n)
+            result = are_equivalent(code, other, facts_a=facts)
+            if result.equivalent:
+                return eid, result.permutation
+        return None, None
+
+    def _store(self, cur: sqlite3.Cursor, code: Code, facts: CodeFacts, lo: int, hi: int,
+               proof: dict | None, recipes: list[dict[str, Any]], added: str | None,
+               added_by: str | None, origin: str) -> tuple[int, str]:
+        """Insert or merge inside the open transaction; return (id, "added"/"merged"/...)."""
+        eid, perm = self._find(cur, code, facts)
+        now = _now()
+        status = "unchanged"
+        if eid is None:
+            rows = linalg.rref(code.packed_generator, n=code.n).sorted().rows
+            cur.execute(
+                "INSERT INTO entry (n, k, d_lower, d_upper, generator, subspace, weights, "
+                "invariant, proof, added_at, added_by, origin) "
+                "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                (code.n, code.k, lo, hi,
+                 np.ascontiguousarray(rows, dtype="<u8").tobytes(), facts.subspace,
+                 None if facts.weights is None else _dumps(facts.weights), facts.invariant,
+                 None if proof is None else _dumps(proof), added or now,
+                 added_by or __version__, origin))
+            eid = cur.lastrowid
+            status = "added"
+        else:
+            old_lo, old_hi = cur.execute("SELECT d_lower, d_upper FROM entry WHERE id = ?",
+                                         (eid,)).fetchone()
+            new_lo, new_hi = max(lo, old_lo), min(hi, old_hi)
+            if new_lo > new_hi:
+                raise CatalogError(
+                    f"{self.path}: entry {eid} has {old_lo} <= d <= {old_hi}, but the code "
+                    f"being added (equivalent to it) was given {lo} <= d <= {hi}."
+                )
+            if (new_lo, new_hi) != (old_lo, old_hi):
+                cur.execute("UPDATE entry SET d_lower = ?, d_upper = ? WHERE id = ?",
+                            (new_lo, new_hi, eid))
+                if new_lo == new_hi and proof is not None:
+                    cur.execute("UPDATE entry SET proof = ? WHERE id = ?", (_dumps(proof), eid))
+                status = "merged"
+        for item in recipes:
+            p = item.get("permutation")
+            if perm is not None:  # compose: recipe code -> this code -> stored generator
+                p = [perm[j] for j in p] if p is not None else perm
+            key = _dumps([item["source"], item.get("recipe"), item.get("seed"), p])
+            fp = hashlib.sha256(key.encode()).hexdigest()[:32]
+            cur.execute(
+                "INSERT OR IGNORE INTO recipe (entry_id, source, steps, seed, permutation, "
+                "fingerprint, added_at, added_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
+                (eid, item["source"], None if item.get("recipe") is None
+                 else _dumps(item["recipe"]), item.get("seed"),
+                 None if p is None else _dumps(p), fp, item.get("added") or now,
+                 item.get("gf2codes") or __version__))
+            if cur.rowcount and status == "unchanged":
+                status = "merged"
+        return eid, status
+
+    def remove(self, entry_id: int) -> Entry:
+        """Delete a stored entry and its recipes; return what was deleted.
+
+        Raises
+        ------
+        CatalogError
+            If there is no such entry.
+        """
+        entry = self.get(entry_id)
+        with self._write() as cur:
+            cur.execute("DELETE FROM entry WHERE id = ?", (entry.id,))
+        return entry
+
+    # ---------------------------------------------------------------- import / export
+    def export(self, stream, *, stamps: bool = True, **filters: Any) -> int:
+        """Write the (filtered) entries as JSON lines to a text stream; return the count."""
+        count = 0
+        for entry in self.entries(**filters):
+            stream.write(json.dumps(entry_record(entry, stamps=stamps)) + "\n")
+            count += 1
+        return count
+
+    def import_records(self, lines: Iterable[str], *, source: str = "<import>",
+                       verify: bool = True, time_limit: float | None = 10.0,
+                       origin: str = "user") -> ImportReport:
+        """Import JSON-lines records; merges by equivalence, so importing twice adds nothing.
+
+        Every good line is imported in one transaction; each bad line is reported in
+        :attr:`ImportReport.errors` with its line number and not imported.
+
+        Parameters
+        ----------
+        lines : iterable of str
+        source : str
+            A name for messages (the file name).
+        verify : bool
+            Re-prove each record: its weight distribution is recomputed (which proves d)
+            when affordable, else d is re-proved by :func:`gf2codes.distance.minimum_distance`
+            within ``time_limit`` seconds per record; a record whose claim is not confirmed
+            is an error. With ``verify=False`` the record's own weight distribution and
+            invariant are trusted (for the shipped seed catalog, verified by the tests).
+        """
+        report = ImportReport()
+        ready: list[tuple[int, _Parsed, CodeFacts]] = []
+        for lineno, line in enumerate(lines, start=1):
+            if not line.strip():
+                continue
+            where = f"{source}, line {lineno}"
+            try:
+                try:
+                    obj = json.loads(line)
+                except json.JSONDecodeError as exc:
+                    raise ParseError(f"{where}: not valid JSON ({exc.msg}).") from None
+                rec = parse_entry_record(obj, where)
+                facts = self._facts_for_import(rec, where, verify, time_limit)
+            except (ParseError, ParameterError) as exc:
+                report.errors.append((lineno, str(exc)))
+                continue
+            ready.append((lineno, rec, facts))
+        if ready:
+            with self._write() as cur:
+                self._store_all(cur, ready, report, origin)
+        return report
+
+    def _store_all(self, cur, ready, report: ImportReport, origin: str) -> None:
+        for lineno, rec, facts in ready:
+            try:
+                _, status = self._store(cur, rec.code, facts, rec.d_lower, rec.d_upper,
+                                        rec.proof, rec.recipes, rec.added, rec.added_by,
+                                        rec.origin or origin)
+            except CatalogError as exc:
+                report.errors.append((lineno, str(exc)))
+                continue
+            setattr(report, status, getattr(report, status) + 1)
+
+    @staticmethod
+    def _facts_for_import(rec: _Parsed, where: str, verify: bool,
+                          time_limit: float | None) -> CodeFacts:
+        code = rec.code
+        if not verify and rec.invariant and (
+                rec.invariant.startswith(_INVARIANT_SCHEME + ":")
+                or rec.invariant.startswith("coarse:")):
+            facts = CodeFacts(_subspace_digest(code), rec.weights, rec.invariant,
+                              "coarse" if rec.invariant.startswith("coarse:") else "trusted")
+            return facts
+        facts = code_facts(code)
+        if rec.weights is not None and facts.weights is not None and rec.weights != facts.weights:
+            raise ParseError(f"{where}: the stated weight distribution is not the code's ("
+                             + _first_difference(rec.weights, facts.weights) + ").")
+        if not verify:
+            return facts
+        if facts.d is not None:
+            if not rec.d_lower <= facts.d <= rec.d_upper:
+                raise ParseError(f"{where}: the record states {rec.d_lower} <= d <= "
+                                 f"{rec.d_upper}, but the code has d = {facts.d}.")
+            rec.d_lower = rec.d_upper = facts.d
+            rec.proved = True
+            return facts
+        from .distance import minimum_distance
+
+        result = minimum_distance(code, time_limit=time_limit)
+        if result.lower > rec.d_upper or result.upper < rec.d_lower:
+            raise ParseError(f"{where}: the record states {rec.d_lower} <= d <= "
+                             f"{rec.d_upper}, but {result.describe()}.")
+        if result.lower < rec.d_lower:
+            raise ParseError(f"{where}: could not confirm d >= {rec.d_lower} within "
+                             f"{time_limit} s ({result.describe()}).")
+        rec.d_upper = min(rec.d_upper, result.upper)
+        return facts
+
+    def import_shipped(self) -> ImportReport:
+        """Import the shipped seed records (again): only what is missing is added."""
+        report = ImportReport()
+        with self._write() as cur:
+            report = self._import_shipped(cur)
+        return report
+
+    def _import_shipped(self, cur: sqlite3.Cursor) -> ImportReport:
+        report = ImportReport()
+        folder = shipped_catalog_dir()
+        if folder is None:
+            return report
+        for path in sorted(folder.glob("*.jsonl")):
+            ready = []
+            with open(path, encoding="utf-8") as fh:
+                for lineno, line in enumerate(fh, start=1):
+                    if not line.strip():
+                        continue
+                    where = f"{path}, line {lineno}"
+                    try:
+                        rec = parse_entry_record(json.loads(line), where)
+                        facts = self._facts_for_import(rec, where, False, None)
+                    except (ParseError, ParameterError, json.JSONDecodeError) as exc:
+                        raise CatalogError(f"the shipped catalog is damaged: {exc}") from None
+                    ready.append((lineno, rec, facts))
+            self._store_all(cur, ready, report, "shipped")
+        cur.execute("INSERT OR REPLACE INTO meta VALUES ('shipped_imported', ?)",
+                    (f"{__version__} at {_now()}",))
+        return report
+
+    # ---------------------------------------------------------------- health
+    def check(self) -> list[str]:
+        """``PRAGMA integrity_check`` and ``foreign_key_check``: an empty list when healthy."""
+        problems = [r[0] for r in self._con.execute("PRAGMA integrity_check") if r[0] != "ok"]
+        problems += [f"dangling recipe {r}" for r in self._con.execute("PRAGMA foreign_key_check")]
+        return problems
+
+    def info(self) -> dict[str, Any]:
+        """Path, schema version, counts and meta values."""
+        meta = dict(self._con.execute("SELECT key, value FROM meta"))
+        by_origin = dict(self._con.execute("SELECT origin, count(*) FROM entry GROUP BY origin"))
+        return {"path": str(self.path), "schema": SCHEMA_VERSION, "entries": len(self),
+                "recipes": self._con.execute("SELECT count(*) FROM recipe").fetchone()[0],
+                "by_origin": by_origin, "meta": meta}
