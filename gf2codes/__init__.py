@@ -11,6 +11,7 @@ The public API is re-exported here from the topic modules:
 * :mod:`gf2codes.derive` — new codes from old (puncture, shorten, extend, ...)
 * :mod:`gf2codes.formats` — matrix files and code records
 * :mod:`gf2codes.parallel` — executors: in-process, process pool, Dask
+* :mod:`gf2codes.catalog` — the local SQLite catalog of proved codes
 * :mod:`gf2codes.search` — the shortest code for (k, d), best d, best k
 * :mod:`gf2codes.decoding` — coset leaders, exact BSC error probabilities, simulation
 * :mod:`gf2codes.export` — C headers, Tanner graphs and other hand-off formats
@@ -36,6 +37,7 @@ from . import (
 )
 from ._version import __version__
 from .bounds import *  # noqa: F403
+from .catalog import *  # noqa: F403
 from .code import *  # noqa: F403
 from .decoding import *  # noqa: F403
 from .derive import *  # noqa: F403
@@ -50,8 +52,8 @@ from .search import *  # noqa: F403
 from .weights import *  # noqa: F403
 
 __all__ = ["__version__"]
-for _module in (bounds, decoding, derive, distance, exceptions, export, families, formats,
-                linalg, parallel, search, weights):
+for _module in (bounds, catalog, decoding, derive, distance, exceptions, export, families,  # noqa: F405
+                formats, linalg, parallel, search, weights):
     __all__ += list(_module.__all__)
 __all__ += ["Code"]  # noqa: F405 - from .code
 del _module

@@ -9,7 +9,7 @@ import pytest
 import gf2codes
 
 MODULES = ["code", "linalg", "distance", "weights", "bounds", "families", "derive", "formats",
-           "parallel", "search", "decoding", "export", "exceptions"]
+           "parallel", "search", "decoding", "export", "catalog", "exceptions"]
 
 
 @pytest.mark.parametrize("name", MODULES)

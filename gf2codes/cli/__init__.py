@@ -29,6 +29,8 @@ COMMANDS: dict[str, str] = {
     "search": "._search",
     "channel": "._channel",
     "export": "._export",
+    "catalog": "._catalog",
+    "equivalent": "._equivalent",
 }
 
 
