@@ -306,3 +306,15 @@ def test_cli_subprocess():
 def test_slow_larger_targets():
     r = S.search_length(64, 4, time_limit=60, seed=0, strategies=["greedy", "lexicode"])
     assert r.n == 72 and r.optimal
+
+
+def test_unusable_default_catalog_is_reported_not_silently_skipped(tmp_path, monkeypatch,
+                                                                    capsys):
+    from gf2codes.cli import main
+
+    bad = tmp_path / "garbage.sqlite"
+    bad.write_text("not a database")
+    monkeypatch.setenv("GF2CODES_CATALOG", str(bad))
+    assert main(["search", "--k", "4", "--d", "3", "--max-steps", "5"]) == 0
+    err = capsys.readouterr().err
+    assert "cannot be used" in err and "will not be saved" in err

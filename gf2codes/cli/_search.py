@@ -81,10 +81,14 @@ def _open_catalog(args):
         return None
     try:
         return catalog.open_catalog(args.catalog)
-    except Gf2CodesError:
+    except Gf2CodesError as exc:
         if args.catalog is not None:  # asked for by name: its errors are the user's
             raise
-        return None  # no usable default catalog: search without one
+        # No usable default catalog: search without one, but say so, since the result
+        # will not be kept there.
+        err_console.print(f"note: searching without the catalog, which cannot be used: "
+                          f"{exc} The result will not be saved in it.", markup=False)
+        return None
 
 
 def run(args) -> int:
