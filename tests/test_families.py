@@ -417,3 +417,22 @@ def test_cli_subprocess_bad_input_exits_2_with_one_line():
     lines = proc.stderr.strip().splitlines()
     assert lines == ["gf2codes build: error: Argument 'r' must be at most 3, not 5."]
     assert "Traceback" not in proc.stderr
+
+
+@pytest.mark.parametrize("n", [7, 15, 21, 23, 31, 45, 63, 75, 117, 100])
+def test_factorisation_of_x_n_minus_1(n):
+    # Regression: galois' randomised factoring gave up on x^75 - 1 and x^117 - 1
+    # ("Failed to find a non-trivial factor"), crashing the search at those lengths.
+    # The deterministic Berlekamp factorisation must give irreducible factors whose
+    # product (with multiplicities) is x^n - 1; galois checks both (reference library).
+    import galois
+
+    from gf2codes.families import _factor_x_n_minus_1
+
+    factors, mults = _factor_x_n_minus_1(n)
+    product = galois.Poly.One()
+    for f, e in zip(factors, mults, strict=True):
+        assert f.is_irreducible()
+        product *= f**e
+    assert product == galois.Poly.Degrees([n, 0])
+    assert len(F.cyclic_codes(n)) == math.prod(e + 1 for e in mults) - 1
