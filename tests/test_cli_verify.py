@@ -137,3 +137,20 @@ def test_a_wrong_statement_in_the_file_is_reported(tmp_path, capsys, hamming74):
     out = _json(capsys, str(f))
     assert out["d"] == 3 and "d = 4" in out["stated_wrong"]
     assert any("contradicts" in note for note in out["notes"])
+
+
+def test_an_internal_error_is_one_line_with_status_3(monkeypatch, capsys, tmp_path):
+    import gf2codes.cli._verify as verify_cli
+
+    def broken(*args, **kwargs):
+        raise ZeroDivisionError("simulated bug")
+
+    monkeypatch.setattr(verify_cli, "analyse", broken)
+    monkeypatch.delenv("GF2CODES_DEBUG", raising=False)
+    assert main(["verify", str(DEMO)]) == 3
+    err = capsys.readouterr().err
+    assert "internal error (ZeroDivisionError: simulated bug)" in err
+    assert len(err.strip().splitlines()) == 1
+    monkeypatch.setenv("GF2CODES_DEBUG", "1")
+    with pytest.raises(ZeroDivisionError):
+        main(["verify", str(DEMO)])

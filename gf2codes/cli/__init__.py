@@ -5,13 +5,15 @@ functions, ``register(subparsers)`` that adds its parser and ``run(args) -> int`
 :func:`main` parses the arguments, runs the command, and turns every
 :class:`~gf2codes.exceptions.Gf2CodesError` into one line on standard error and
 exit status 2. Ctrl-C gives exit status 130, after the command has had the chance
-to report what it found.
+to report what it found. Any other exception is a bug: it is reported as one line
+with exit status 3 (``GF2CODES_DEBUG=1`` shows the traceback instead).
 """
 
 from __future__ import annotations
 
 import argparse
 import importlib
+import os
 import sys
 from collections.abc import Sequence
 
@@ -84,6 +86,13 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 130
     except BrokenPipeError:  # output piped into `head` and closed early
         return 0
+    except Exception as exc:  # a bug: one line for the user, the traceback on request
+        if os.environ.get("GF2CODES_DEBUG"):
+            raise
+        print(f"gf2codes {args.command}: internal error ({type(exc).__name__}: {exc}); "
+              "please report it. Run with GF2CODES_DEBUG=1 to see the traceback.",
+              file=sys.stderr)
+        return 3
 
 
 def entry_point() -> None:
