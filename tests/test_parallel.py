@@ -62,7 +62,7 @@ def dask_cluster():
 
 def _codes():
     rng = np.random.default_rng(11)
-    yield families.bch(63, 11)  # [63,36,11]: MacWilliams & Sloane, appendix A
+    yield families.bch(63, 11)  # [63,36,11]: MacWilliams & Sloane, appendix A (from memory)
     yield families.quadratic_residue(47)  # [47,24,11]
     yield Code(rng.integers(0, 2, size=(30, 70), dtype=np.uint8))
 
@@ -78,7 +78,8 @@ def test_process_pool_and_dask_agree_with_serial(remote_levels, dask_cluster):
 
 
 def _bch_target():
-    # BCH [127,64] has d = 21 (MacWilliams & Sloane, appendix A); settling d >= 16 takes
+    # BCH [127,64] has d = 21 (MacWilliams & Sloane, appendix A, from memory; proved by
+    # scripts/bench_distance.py); settling d >= 16 takes
     # a few billion codewords, long enough to kill a worker in the middle.
     return families.bch(127, 21), 16
 

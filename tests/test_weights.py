@@ -72,7 +72,8 @@ def test_published_distributions(hamming74, golay23, golay24):
 
 
 def test_krawtchouk_orthogonality():
-    # sum_i C(n,i) K_r(i) K_s(i) = 2^n C(n,r) delta_rs (MacWilliams & Sloane, ch. 5 Theorem 16)
+    # sum_i C(n,i) K_r(i) K_s(i) = 2^n C(n,r) delta_rs (MacWilliams & Sloane, ch. 5 section 7;
+    # theorem number from memory)
     n = 9
     for r in range(n + 1):
         for s in range(n + 1):
