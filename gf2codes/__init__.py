@@ -21,39 +21,43 @@ The public API is re-exported here from the topic modules:
 
 from __future__ import annotations
 
-from . import (
-    bounds,
-    decoding,
-    derive,
-    distance,
-    exceptions,
-    export,
-    families,
-    formats,
-    linalg,
-    parallel,
-    search,
-    weights,
-)
-from ._version import __version__
-from .bounds import *  # noqa: F403
-from .catalog import *  # noqa: F403
-from .code import *  # noqa: F403
-from .decoding import *  # noqa: F403
-from .derive import *  # noqa: F403
-from .distance import *  # noqa: F403
-from .exceptions import *  # noqa: F403
-from .export import *  # noqa: F403
-from .families import *  # noqa: F403
-from .formats import *  # noqa: F403
-from .linalg import *  # noqa: F403
-from .parallel import *  # noqa: F403
-from .search import *  # noqa: F403
-from .weights import *  # noqa: F403
+import importlib
+from typing import Any
 
-__all__ = ["__version__"]
-for _module in (bounds, catalog, decoding, derive, distance, exceptions, export, families,  # noqa: F405
-                formats, linalg, parallel, search, weights):
-    __all__ += list(_module.__all__)
-__all__ += ["Code"]  # noqa: F405 - from .code
-del _module
+from ._version import __version__  # noqa: F401 - public, listed by __all__
+
+# Importing the package imports nothing else: each public name is looked up, on first
+# use, in the topic modules below (in this order, lower layers first), and the module
+# that defines it is imported then. ``import gf2codes`` therefore costs no NumPy, no
+# numba and no compiled kernel; ``from gf2codes import Code`` costs only what Code
+# needs. A test checks that every name of every module's ``__all__`` is reachable here.
+_MODULES = ("code", "linalg", "distance", "weights", "exceptions", "formats", "bounds",
+            "families", "derive", "parallel", "search", "decoding", "export", "catalog")
+
+
+def _public_names() -> list[str]:
+    names = ["__version__"]
+    for module in _MODULES:
+        names += importlib.import_module(f".{module}", __name__).__all__
+    return names
+
+
+def __getattr__(name: str) -> Any:
+    if name == "__all__":
+        value: Any = _public_names()
+    elif name in _MODULES or name == "plots":
+        value = importlib.import_module(f".{name}", __name__)
+    else:
+        for module_name in _MODULES:
+            module = importlib.import_module(f".{module_name}", __name__)
+            if name in module.__all__:
+                value = getattr(module, name)
+                break
+        else:
+            raise AttributeError(f"module 'gf2codes' has no attribute {name!r}")
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(_public_names()) | set(_MODULES))

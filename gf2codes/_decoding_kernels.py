@@ -1,9 +1,10 @@
 """Compiled kernels for :mod:`gf2codes.decoding`, with their plain-Python twins.
 
-Every ``@numba.njit`` function carries an explicit signature, ``cache=True`` and
-``nogil=True``; it takes arrays and integers only and reads no module globals. Each
-has a twin of the same name with the suffix ``_py``, written in plain Python for the
-tests, which run the same inputs through both.
+Every kernel is declared with :func:`gf2codes._jit.kernel` (an explicit signature,
+``cache=True``, compiled on first call) and ``nogil=True``; it takes arrays and
+integers only and reads no module globals. Each has a twin of the same name with the
+suffix ``_py``, written in plain Python for the tests, which run the same inputs
+through both.
 
 Syndromes are integers: bit ``i`` of the syndrome of column ``j`` is ``H[i, j]``, so
 a code of redundancy ``r = n - k`` has ``2^r`` syndromes ``0 .. 2^r - 1``.
@@ -11,10 +12,9 @@ a code of redundancy ``r = n - k`` has ``2^r`` syndromes ``0 .. 2^r - 1``.
 
 from __future__ import annotations
 
-import numba as nb
 import numpy as np
-from numba import types
 
+from ._jit import kernel
 from ._kernels import popcount64
 
 __all__ = [
@@ -28,13 +28,7 @@ __all__ = [
 #: Value of ``level[s]`` for a syndrome not (yet) reached by the search.
 UNREACHED = 255
 
-_u64 = types.uint64
-_i64 = types.int64
-_u8 = types.uint8
-_i32 = types.int32
-
-
-@nb.njit(_i64[::1](_u64[::1], _i64, _u8[::1], _i32[::1]), cache=True, nogil=True)
+@kernel("int64[::1](uint64[::1], int64, uint8[::1], int32[::1])", nogil=True)
 def coset_levels(cols, r, level, parent):  # pragma: no cover - compiled
     """Breadth-first search over the ``2^r`` syndromes, one column of ``H`` at a time.
 
@@ -122,8 +116,7 @@ def coset_levels_py(cols, r, level, parent):
     return counts
 
 
-@nb.njit(types.void(_u64[:, ::1], _u64[:, ::1], _i64, _i64[::1], _i64[:, ::1]),
-         cache=True, nogil=True)
+@kernel("void(uint64[:, ::1], uint64[:, ::1], int64, int64[::1], int64[:, ::1])", nogil=True)
 def info_set_search(base, rows, order, best_weight, best_flips):  # pragma: no cover - compiled
     """Least-weight error patterns of one information set, flipping up to ``order`` bits.
 

@@ -1,10 +1,13 @@
 """Compiled kernels on bit-packed GF(2) rows.
 
-Every function here is compiled by numba with an explicit signature and
-``cache=True``; it takes arrays and integers only, reads no module globals and
-does no I/O. The public modules (:mod:`gf2codes.linalg`, :mod:`gf2codes.distance`,
-:mod:`gf2codes.weights`) call them; :mod:`gf2codes._reference` holds plain-Python
-twins that the tests run against the same inputs.
+Every kernel here is declared with :func:`gf2codes._jit.kernel`: an explicit numba
+signature and ``cache=True``, compiled (or loaded from numba's cache) on its first
+call, so importing this module loads neither numba nor any machine code. A kernel
+takes arrays and integers only, reads no module globals but other kernels and
+intrinsics, and does no I/O. The public modules (:mod:`gf2codes.linalg`,
+:mod:`gf2codes.distance`, :mod:`gf2codes.weights`) call them;
+:mod:`gf2codes._reference` holds plain-Python twins that the tests run against the
+same inputs.
 
 Packing convention (used throughout gf2codes): coordinate ``j`` of a row lives in
 word ``j >> 6`` at bit ``j & 63`` (least significant bit first). A matrix of ``r``
@@ -18,12 +21,9 @@ popcount per codeword) vectorise.
 
 from __future__ import annotations
 
-import numba as nb
 import numpy as np
-from llvmlite import ir
-from numba import types
-from numba.core import cgutils
-from numba.extending import intrinsic
+
+from ._jit import intrinsic, kernel
 
 __all__ = [
     "popcount64",
@@ -36,51 +36,56 @@ __all__ = [
     "subset_sums",
 ]
 
-_u64 = types.uint64
-_i64 = types.int64
+def _unary_u64_intrinsic(numba, name, llvm_name, extra_false_arg):
+    """An intrinsic calling the LLVM bit operation ``llvm_name`` on one uint64."""
+    from llvmlite import ir
+    from numba.core import cgutils
+
+    u64 = numba.types.uint64
+
+    def typer(typingctx, x):  # pragma: no cover - compiled
+        if x != u64:
+            return None
+
+        def codegen(context, builder, signature, args):
+            i64 = ir.IntType(64)
+            params = [i64, ir.IntType(1)] if extra_false_arg else [i64]
+            fn = cgutils.get_or_insert_function(
+                builder.module, ir.FunctionType(i64, params), llvm_name)
+            call_args = [args[0], ir.Constant(ir.IntType(1), 0)] if extra_false_arg else args
+            return builder.call(fn, call_args)
+
+        return u64(u64), codegen
+
+    typer.__name__ = name
+    return numba.extending.intrinsic(typer)
 
 
 @intrinsic
-def _llvm_ctpop(typingctx, x):  # pragma: no cover - compiled
+def _llvm_ctpop(numba):
     """LLVM's ``ctpop`` on a uint64 (one POPCNT instruction where the CPU has it)."""
-    if x != _u64:
-        return None
-
-    def codegen(context, builder, signature, args):
-        fnty = ir.FunctionType(ir.IntType(64), [ir.IntType(64)])
-        fn = cgutils.get_or_insert_function(builder.module, fnty, "llvm.ctpop.i64")
-        return builder.call(fn, args)
-
-    return _u64(_u64), codegen
+    return _unary_u64_intrinsic(numba, "_llvm_ctpop", "llvm.ctpop.i64", False)
 
 
 @intrinsic
-def _llvm_cttz(typingctx, x):  # pragma: no cover - compiled
+def _llvm_cttz(numba):
     """LLVM's ``cttz`` on a uint64 (count of trailing zero bits; 64 for zero)."""
-    if x != _u64:
-        return None
-
-    def codegen(context, builder, signature, args):
-        fnty = ir.FunctionType(ir.IntType(64), [ir.IntType(64), ir.IntType(1)])
-        fn = cgutils.get_or_insert_function(builder.module, fnty, "llvm.cttz.i64")
-        return builder.call(fn, [args[0], ir.Constant(ir.IntType(1), 0)])
-
-    return _u64(_u64), codegen
+    return _unary_u64_intrinsic(numba, "_llvm_cttz", "llvm.cttz.i64", True)
 
 
-@nb.njit(_u64(_u64), cache=True, inline="always")
+@kernel("uint64(uint64)", inline="always")
 def popcount64(x):  # pragma: no cover - compiled
     """Number of set bits of a 64-bit word."""
     return _llvm_ctpop(x)
 
 
-@nb.njit(_u64(_u64), cache=True, inline="always")
+@kernel("uint64(uint64)", inline="always")
 def ctz64(x):  # pragma: no cover - compiled
     """Number of trailing zero bits of a 64-bit word (64 for zero)."""
     return _llvm_cttz(x)
 
 
-@nb.njit(_i64[:](_u64[:, ::1], _i64[::1]), cache=True, nogil=True)
+@kernel("int64[:](uint64[:, ::1], int64[::1])", nogil=True)
 def rref_inplace(M, order):  # pragma: no cover - compiled
     """Reduce packed rows ``M`` to reduced row echelon form, in place.
 
@@ -121,7 +126,7 @@ def rref_inplace(M, order):  # pragma: no cover - compiled
     return pivots[:rank].copy()
 
 
-@nb.njit(cache=True, inline="always")
+@kernel(inline="always")
 def _weight(s, W):  # pragma: no cover - compiled
     wt = np.uint64(0)
     for w in range(W):
@@ -129,7 +134,7 @@ def _weight(s, W):  # pragma: no cover - compiled
     return wt
 
 
-@nb.njit(cache=True, inline="always")
+@kernel(inline="always")
 def _scan_min(s, T, lo, hi, W):  # pragma: no cover - compiled
     """Least weight of ``s ^ T[:, i]`` over ``lo <= i < hi`` (vectorised for W <= 2)."""
     m = np.uint64(1 << 62)
@@ -159,7 +164,7 @@ def _scan_min(s, T, lo, hi, W):  # pragma: no cover - compiled
     return m
 
 
-@nb.njit(cache=True, inline="always")
+@kernel(inline="always")
 def _scan_find(s, T, lo, hi, W, target):  # pragma: no cover - compiled
     """First ``i`` in ``[lo, hi)`` with weight of ``s ^ T[:, i]`` equal to ``target``."""
     for i in range(lo, hi):
@@ -171,9 +176,8 @@ def _scan_find(s, T, lo, hi, W, target):  # pragma: no cover - compiled
     return -1
 
 
-@nb.njit(
-    types.Tuple((_i64, _i64, _i64))(_u64[:, ::1], _u64[:, ::1], _i64, _i64, _i64),
-    cache=True,
+@kernel(
+    "Tuple((int64, int64, int64))(uint64[:, ::1], uint64[:, ::1], int64, int64, int64)",
     nogil=True,
 )
 def gray_min_weight(OT, TT, g_start, g_stop, stop_at):  # pragma: no cover - compiled
@@ -220,7 +224,7 @@ def gray_min_weight(OT, TT, g_start, g_stop, stop_at):  # pragma: no cover - com
     return np.int64(best), best_gray, best_inner
 
 
-@nb.njit(_i64[::1](_u64[:, ::1], _u64[:, ::1], _i64, _i64, _i64), cache=True, nogil=True)
+@kernel("int64[::1](uint64[:, ::1], uint64[:, ::1], int64, int64, int64)", nogil=True)
 def gray_weight_histogram(OT, TT, g_start, g_stop, n):  # pragma: no cover - compiled
     """Histogram of codeword weights over a Gray-code block (layout as in
     :func:`gray_min_weight`); the zero codeword is included when ``g_start == 0``."""
@@ -254,11 +258,9 @@ def gray_weight_histogram(OT, TT, g_start, g_stop, n):  # pragma: no cover - com
     return hist
 
 
-@nb.njit(
-    types.Tuple((_i64, _i64, types.boolean))(
-        _u64[:, ::1], _i64, _i64[::1], _i64, _i64, _i64[::1], _u64[::1]
-    ),
-    cache=True,
+@kernel(
+    "Tuple((int64, int64, boolean))(uint64[:, ::1], int64, int64[::1], int64, int64, "
+    "int64[::1], uint64[::1])",
     nogil=True,
 )
 def combination_min_weight(GT, w, state, budget, stop_at, best_combo, base):  # pragma: no cover
@@ -318,11 +320,9 @@ def combination_min_weight(GT, w, state, budget, stop_at, best_combo, base):  # 
             return visited, np.int64(best), False
 
 
-@nb.njit(
-    types.Tuple((_i64, _i64, _i64, types.boolean))(
-        _u64[:, ::1], _i64, _i64[::1], _u64[:, ::1], _i64, _i64, _i64[::1], _u64[::1]
-    ),
-    cache=True,
+@kernel(
+    "Tuple((int64, int64, int64, boolean))(uint64[:, ::1], int64, int64[::1], uint64[:, "
+    "::1], int64, int64, int64[::1], uint64[::1])",
     nogil=True,
 )
 def combination_table_min_weight(AT, w1, state, TT, budget, stop_at, best_combo,
@@ -380,11 +380,7 @@ def combination_table_min_weight(AT, w1, state, TT, budget, stop_at, best_combo,
             return visited, np.int64(best), best_t, False
 
 
-@nb.njit(
-    types.Tuple((_u64[:, ::1], types.uint8[:, ::1]))(_u64[:, ::1], _i64),
-    cache=True,
-    nogil=True,
-)
+@kernel("Tuple((uint64[:, ::1], uint8[:, ::1]))(uint64[:, ::1], int64)", nogil=True)
 def subset_sums(rows, w):  # pragma: no cover - compiled
     """Sums of every ``w``-subset of ``rows`` (shape ``(b, W)``), in lexicographic order.
 
@@ -424,3 +420,139 @@ def subset_sums(rows, w):  # pragma: no cover - compiled
             for q in range(W):
                 part[l + 1, q] = part[l, q] ^ rows[c[l], q]
     return sums, subsets
+
+
+# ---------------------------------------------------------------- NumPy twins for small calls
+#
+# A process that only ever handles small codes (``verify`` on a [24,12] code, a folder of
+# candidate layouts) would spend most of its time importing numba and loading machine code
+# from the cache: far longer than the work itself. The kernels below therefore have NumPy
+# twins with exactly the same results (scalars as Python ints, as numba returns them),
+# used while the kernel is not compiled and the call is small (see ``Kernel.small``);
+# tests/test_jit.py runs the same inputs through both.
+
+#: Array-element operations below which a call is served by its NumPy twin (while numba is
+#: not loaded): about a millisecond of NumPy, against roughly 0.3–1 s to load numba.
+SMALL_WORK = 1 << 20
+
+_BYTE_WEIGHTS = np.array([bin(i).count("1") for i in range(256)], dtype=np.int64)
+
+
+def popcount_array(a: np.ndarray) -> np.ndarray:
+    """Set bits of every uint64 of ``a``, as int64 (NumPy; no kernel)."""
+    a = np.ascontiguousarray(a, dtype=np.uint64)
+    if hasattr(np, "bitwise_count"):
+        return np.bitwise_count(a).astype(np.int64)
+    return _BYTE_WEIGHTS[a.view(np.uint8)].reshape(a.shape + (8,)).sum(axis=-1)
+
+
+def _rref_small(M, order):
+    if order.shape[0] * M.shape[0] * M.shape[1] > SMALL_WORK or order.shape[0] > 4096:
+        return None
+    r = M.shape[0]
+    pivots = []
+    rank = 0
+    for col in order.tolist():
+        if rank == r:
+            break
+        wd, bit = col >> 6, np.uint64(1) << np.uint64(col & 63)
+        below = np.flatnonzero(M[rank:, wd] & bit)
+        if below.size == 0:
+            continue
+        sel = rank + int(below[0])
+        if sel != rank:
+            M[[rank, sel]] = M[[sel, rank]]
+        hits = (M[:, wd] & bit) != 0
+        hits[rank] = False
+        M[hits] ^= M[rank]
+        pivots.append(col)
+        rank += 1
+    return np.array(pivots, dtype=np.int64)
+
+
+rref_inplace.small = _rref_small
+
+
+def _gray_weights(OT, TT, g_start, g_stop):
+    """Weights of every codeword of a Gray-code block: array ``(g_stop - g_start, 2**b)``."""
+    a = OT.shape[1]
+    g = np.arange(g_start, g_stop, dtype=np.uint64)
+    gray = g ^ (g >> np.uint64(1))
+    sums = np.zeros((g.shape[0], OT.shape[0]), dtype=np.uint64)
+    for j in range(a):
+        hit = ((gray >> np.uint64(j)) & np.uint64(1)).astype(bool)
+        sums[hit] ^= OT[:, j]
+    words = sums[:, None, :] ^ TT.T[None, :, :]
+    return popcount_array(words).sum(axis=-1)
+
+
+def _gray_block_small(OT, TT, g_start, g_stop):
+    return (g_stop - g_start) * TT.shape[1] * max(OT.shape[0], 1) <= SMALL_WORK
+
+
+def _gray_min_weight_small(OT, TT, g_start, g_stop, stop_at):
+    if not _gray_block_small(OT, TT, g_start, g_stop):
+        return None
+    none = (1 << 62, -1, -1)
+    if g_stop <= g_start:
+        return none
+    weights = _gray_weights(OT, TT, g_start, g_stop)
+    if g_start == 0:
+        weights[0, 0] = 1 << 62  # the zero codeword
+    per_block = weights.min(axis=1)
+    early = np.flatnonzero(per_block <= stop_at)
+    if early.size:  # the kernel stops at the first block reaching stop_at
+        row = int(early[0])
+    else:
+        row = int(np.argmin(per_block))
+    best = int(per_block[row])
+    if best >= 1 << 62:
+        return none
+    g = g_start + row
+    return best, g ^ (g >> 1), int(np.argmax(weights[row] == best))
+
+
+def _gray_weight_histogram_small(OT, TT, g_start, g_stop, n):
+    if not _gray_block_small(OT, TT, g_start, g_stop):
+        return None
+    hist = np.zeros(n + 1, dtype=np.int64)
+    if g_stop > g_start:
+        np.add.at(hist, _gray_weights(OT, TT, g_start, g_stop).ravel(), 1)
+    return hist
+
+
+gray_min_weight.small = _gray_min_weight_small
+gray_weight_histogram.small = _gray_weight_histogram_small
+
+
+def _combination_min_weight_small(GT, w, state, budget, stop_at, best_combo, base):
+    """The twin for ``w <= 2`` (the information-set pass): prefixes in order, each scan
+    vectorised, with the kernel's stopping and resuming rules."""
+    W, k = GT.shape
+    if w > 2 or w > k or k * k * W > SMALL_WORK:
+        return None
+    p = w - 1
+    best, visited = 1 << 62, 0
+    while True:
+        lo = int(state[0]) + 1 if p else 0
+        s = base ^ GT[:, state[0]] if p else base
+        if lo < k:
+            weights = popcount_array(GT[:, lo:] ^ s[:, None]).sum(axis=0)
+            i = int(np.argmin(weights))
+            m = int(weights[i])
+        else:
+            m = 1 << 62
+        visited += k - lo
+        if m < best:
+            best = m
+            if p:
+                best_combo[0] = state[0]
+            best_combo[p] = lo + i
+        if not p or state[0] == k - 2:
+            return visited, best, True
+        state[0] += 1
+        if best <= stop_at or visited >= budget:
+            return visited, best, False
+
+
+combination_min_weight.small = _combination_min_weight_small

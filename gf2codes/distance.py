@@ -730,7 +730,7 @@ def _isd(code: Code, rng: np.random.Generator, iterations: int | None,
     G = code.packed_generator
     best_w, best_word = _INF, None
     for r in range(G.shape[0]):
-        wt = int(sum(_kernels.popcount64(x) for x in G[r]))
+        wt = sum(int(x).bit_count() for x in G[r])
         if wt < best_w:
             best_w, best_word = wt, G[r].copy()
     examined = k

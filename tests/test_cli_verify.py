@@ -155,3 +155,46 @@ def test_an_internal_error_is_one_line_with_status_3(monkeypatch, capsys, tmp_pa
     monkeypatch.setenv("GF2CODES_DEBUG", "1")
     with pytest.raises(ZeroDivisionError):
         main(["verify", str(DEMO)])
+
+
+def test_many_files_and_a_directory_with_a_bad_file_among_good_ones(tmp_path, capsys,
+                                                                      hamming74, golay24):
+    """Issue 11: one call proves every file; a bad one is named and does not stop the rest."""
+    folder = tmp_path / "layouts"
+    folder.mkdir()
+    write_code(hamming74, folder / "a-hamming.txt")
+    (folder / "b-broken.txt").write_text("0102\n1100\n")
+    write_code(golay24, folder / "c-golay.json")
+    (folder / "notes.md").write_text("not a matrix, and not read: wrong ending\n")
+    assert main(["verify", str(folder), "--json"]) == 2
+    captured = capsys.readouterr()
+    reports = [json.loads(line) for line in captured.out.splitlines()]
+    assert [(r["source"].rsplit("/", 1)[-1], r["n"], r["k"], r["d"]) for r in reports] == [
+        ("a-hamming.txt", 7, 4, 3), ("c-golay.json", 24, 12, 8)]
+    assert "b-broken.txt" in captured.err and "1 of 3 files failed" in captured.err
+    assert "Traceback" not in captured.err
+
+
+def test_many_files_as_arguments_text_reports(tmp_path, capsys, hamming74):
+    files = []
+    for i in range(3):
+        f = tmp_path / f"h{i}.txt"
+        write_code(hamming74, f)
+        files.append(str(f))
+    assert main(["verify", *files]) == 0
+    out = capsys.readouterr().out
+    assert out.count("[7, 4, 3]") == 3 and all(f in out for f in files)
+
+
+def test_a_directory_without_matrix_files_is_one_error_line(tmp_path):
+    (tmp_path / "readme.md").write_text("nothing here\n")
+    proc = _run("verify", str(tmp_path))
+    assert proc.returncode == 2 and "holds no matrix files" in proc.stderr
+    assert len(proc.stderr.strip().splitlines()) == 1
+
+
+def test_plot_takes_one_input(tmp_path, hamming74):
+    for i in range(2):
+        write_code(hamming74, tmp_path / f"h{i}.txt")
+    proc = _run("verify", str(tmp_path), "--plot", str(tmp_path / "w.png"))
+    assert proc.returncode == 2 and "--plot" in proc.stderr

@@ -16,11 +16,12 @@ import importlib
 import os
 import sys
 from collections.abc import Sequence
+from typing import Any
 
 from .._version import __version__
 from ..exceptions import Gf2CodesError
 
-__all__ = ["main", "entry_point", "COMMANDS"]
+__all__ = ["main", "entry_point", "COMMANDS", "SUMMARIES"]
 
 #: Sub-command name -> module (inside this package) that implements it.
 COMMANDS: dict[str, str] = {
@@ -35,6 +36,21 @@ COMMANDS: dict[str, str] = {
     "equivalent": "._equivalent",
 }
 
+#: Sub-command name -> its one-line help, as its module registers it. ``gf2codes --help``
+#: prints these without importing any command module (and so without numpy, numba or
+#: rich); a test checks that they equal what each module registers.
+SUMMARIES: dict[str, str] = {
+    "verify": "prove n, k, d of a code, its weight distribution and properties",
+    "bounds": "upper and existence bounds for binary linear [n, k, d] codes",
+    "build": "construct a code from a named family",
+    "derive": "apply derivations (shorten, puncture, extend, ...) to a code",
+    "search": "search for the shortest code for (k, d), or the best d or k",
+    "channel": "error probabilities of a code on a binary symmetric channel",
+    "export": "write the systematic encoder and syndrome as C, text, npy, JSON or GraphML",
+    "catalog": "the local catalog of proved codes: add, list, best, table, ...",
+    "equivalent": "decide whether two codes are equal up to a coordinate permutation",
+}
+
 
 class _Parser(argparse.ArgumentParser):
     """An argument parser whose errors are one line and exit status 2."""
@@ -43,39 +59,48 @@ class _Parser(argparse.ArgumentParser):
         self.exit(2, f"{self.prog}: error: {message}\n")
 
 
-def _build_parser(available: dict[str, object]) -> argparse.ArgumentParser:
+def _chosen_command(argv: Sequence[str]) -> str | None:
+    """The sub-command named in ``argv`` (the first word that is not an option), if any."""
+    for word in argv:
+        if not word.startswith("-"):
+            return word if word in COMMANDS else None
+    return None
+
+
+def _load_command(name: str) -> Any:
+    return importlib.import_module(COMMANDS[name], __name__)
+
+
+def _build_parser(chosen: str | None) -> tuple[argparse.ArgumentParser, Any]:
+    """The parser, with the chosen command fully registered and the others as summaries.
+
+    Only the chosen command's module is imported, so ``gf2codes --help`` imports none
+    and ``gf2codes verify ...`` imports only what ``verify`` needs.
+    """
     parser = _Parser(
         prog="gf2codes",
         description="Construct, verify and search binary linear block codes over GF(2).",
     )
     parser.add_argument("--version", action="version", version=f"gf2codes {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-    for module in available.values():
-        module.register(sub)  # type: ignore[attr-defined]
-    return parser
-
-
-def _available_commands() -> dict[str, object]:
-    found = {}
-    for name, modname in COMMANDS.items():
-        try:
-            found[name] = importlib.import_module(modname, __name__)
-        except ModuleNotFoundError as exc:  # a command whose module is not written yet
-            if exc.name and exc.name.endswith(modname.lstrip(".")):
-                continue
-            raise
-    return found
+    module = None
+    for name in COMMANDS:
+        if name == chosen:
+            module = _load_command(name)
+            module.register(sub)
+        else:
+            sub.add_parser(name, help=SUMMARIES.get(name), add_help=False)
+    return parser, module
 
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Run the command line with ``argv`` (default: ``sys.argv[1:]``); return the exit status."""
-    available = _available_commands()
-    parser = _build_parser(available)
-    args = parser.parse_args(list(sys.argv[1:] if argv is None else argv))
-    if not args.command:
+    words = list(sys.argv[1:] if argv is None else argv)
+    parser, module = _build_parser(_chosen_command(words))
+    args = parser.parse_args(words)
+    if not args.command or module is None:
         parser.print_help()
         return 2
-    module = available[args.command]
     try:
         return int(module.run(args))  # type: ignore[attr-defined]
     except Gf2CodesError as exc:

@@ -22,9 +22,12 @@ def add_json_flag(parser) -> None:
                         help="print one JSON object instead of tables")
 
 
-def print_json(obj: Any) -> None:
-    """Write ``obj`` as JSON on standard output (one object, newline-terminated)."""
-    sys.stdout.write(json.dumps(obj, indent=2, sort_keys=False) + "\n")
+def print_json(obj: Any, *, one_line: bool = False) -> None:
+    """Write ``obj`` as JSON on standard output (one object, newline-terminated).
+
+    ``one_line`` writes it on a single line, as one record of a JSON-lines stream.
+    """
+    sys.stdout.write(json.dumps(obj, indent=None if one_line else 2, sort_keys=False) + "\n")
     sys.stdout.flush()
 
 

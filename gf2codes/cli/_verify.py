@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import os
 import time
 from typing import Any
 
@@ -11,7 +12,7 @@ from rich.table import Table
 
 from ..code import Code
 from ..distance import DistanceResult, human_seconds, minimum_distance, quick_distance
-from ..exceptions import ParameterError, TooExpensiveError, check_int
+from ..exceptions import Gf2CodesError, ParameterError, TooExpensiveError, check_int
 from ..formats import read_code, rows_to_strings
 from ..weights import (
     DEFAULT_MAX_ENUMERATION,
@@ -45,7 +46,9 @@ def register(sub: argparse._SubParsersAction) -> None:
             "minimum-weight codeword and the code's properties."
         ),
     )
-    p.add_argument("file", help="matrix file: text rows of 0/1, .npy, or JSON code record")
+    p.add_argument("files", nargs="+", metavar="FILE",
+                   help="matrix files (text rows of 0/1, .npy, or JSON code records), or "
+                        "directories: every .txt, .npy and .json file in them")
     p.add_argument("--parity-check", action="store_true",
                    help="the file holds a parity-check matrix H, not a generator matrix")
     p.add_argument("--target-d", type=int, metavar="D",
@@ -76,20 +79,72 @@ def run(args: argparse.Namespace) -> int:
         from ..plots import require_matplotlib
 
         require_matplotlib()  # before the work, not after it
-    record = read_code(args.file, parity_check=args.parity_check)
-    stated = {key: getattr(record, key) for key in ("d", "d_lower", "d_upper")
-              if getattr(record, key) is not None}
+    inputs = _expand_inputs(args.files)
+    if args.plot and len(inputs) != 1:
+        raise ParameterError(f"Argument '--plot' draws one code, but {len(inputs)} input "
+                             "files were given.")
     executor = executor_from_args(args)
+    failed: list[str] = []
     try:
-        info = analyse(record.code, time_limit=args.time_limit, method=args.method,
-                       target_d=args.target_d, seed=args.seed, workers=args.workers,
-                       stated=stated, executor=executor)
+        for number, path in enumerate(inputs):
+            if number and not args.json:
+                console.print()
+            try:
+                status = _verify_one(path, args, executor, one_line=len(inputs) > 1)
+            except Gf2CodesError as exc:
+                if len(inputs) == 1:
+                    raise
+                err_console.print(f"gf2codes verify: error: {escape(str(exc))}", soft_wrap=True)
+                failed.append(path)
+                continue
+            if status:  # interrupted: what was proved is printed; stop here
+                return status
     finally:
         if executor is not None:
             executor.close()
-    status = _print(info, record.code, args.file, as_json=args.json)
+    if failed:
+        err_console.print(f"gf2codes verify: {len(failed)} of {len(inputs)} files failed: "
+                          + escape(", ".join(failed)), soft_wrap=True)
+        return 2
+    return 0
+
+
+#: File name endings that ``verify DIRECTORY`` reads.
+MATRIX_SUFFIXES = (".txt", ".npy", ".json")
+
+
+def _expand_inputs(paths: list[str]) -> list[str]:
+    """The files to verify: each path as given, a directory replaced by its matrix files."""
+    out: list[str] = []
+    for path in paths:
+        if os.path.isdir(path):
+            found = sorted(os.path.join(path, name) for name in os.listdir(path)
+                           if name.lower().endswith(MATRIX_SUFFIXES)
+                           and os.path.isfile(os.path.join(path, name)))
+            if not found:
+                raise ParameterError(f"the directory {path!r} holds no matrix files "
+                                     f"({', '.join(MATRIX_SUFFIXES)}).")
+            out += found
+        else:
+            out.append(path)
+    return out
+
+
+def _verify_one(path: str, args: argparse.Namespace, executor: Any, *,
+                one_line: bool = False) -> int:
+    """Read, prove and print one input file; returns 130 after a Ctrl-C, else 0.
+
+    ``one_line``: with ``--json``, the report is one line of a JSON-lines stream.
+    """
+    record = read_code(path, parity_check=args.parity_check)
+    stated = {key: getattr(record, key) for key in ("d", "d_lower", "d_upper")
+              if getattr(record, key) is not None}
+    info = analyse(record.code, time_limit=args.time_limit, method=args.method,
+                   target_d=args.target_d, seed=args.seed, workers=args.workers,
+                   stated=stated, executor=executor)
+    status = _print(info, record.code, path, as_json=args.json, one_line=one_line)
     if args.plot:
-        _plot(info, record.code, args.file, args.plot)
+        _plot(info, record.code, path, args.plot)
     return status
 
 
@@ -245,11 +300,12 @@ def report(code: Code, *, as_json: bool = False, time_limit: float | None = None
     return _print(info, code, source, as_json=as_json)
 
 
-def _print(info: dict[str, Any], code: Code, source: str | None, *, as_json: bool) -> int:
+def _print(info: dict[str, Any], code: Code, source: str | None, *, as_json: bool,
+           one_line: bool = False) -> int:
     """Print a report (table or JSON); the exit status is 130 after a Ctrl-C."""
     status = 130 if info["stopped"] == "interrupted" else 0
     if as_json:
-        print_json({"source": source, **info} if source else info)
+        print_json({"source": source, **info} if source else info, one_line=one_line)
     else:
         _print_report(info, code, source)
     return status

@@ -1,10 +1,11 @@
 """Compiled kernels of the search strategies.
 
-Like :mod:`gf2codes._kernels`: explicit numba signatures, ``cache=True``,
-``nogil=True``, arrays and integers only, no module globals, no I/O. Randomness
-inside a kernel comes from numba's own generator, seeded by an argument (it is
-separate from NumPy's global state, which is never touched). Plain-Python twins
-live in the tests (``tests/test_search.py``).
+Like :mod:`gf2codes._kernels`: declared with :func:`gf2codes._jit.kernel` (explicit
+numba signatures, ``cache=True``, compiled on first call), ``nogil=True``, arrays
+and integers only, no module globals, no I/O. Randomness inside a kernel comes from
+numba's own generator, seeded by an argument (it is separate from NumPy's global
+state, which is never touched). Plain-Python twins live in the tests
+(``tests/test_search.py``).
 
 Two families of kernels:
 
@@ -22,10 +23,9 @@ Two families of kernels:
 
 from __future__ import annotations
 
-import numba as nb
 import numpy as np
-from numba import types
 
+from .._jit import kernel
 from .._kernels import popcount64
 
 __all__ = ["greedy_columns", "count_light", "anneal_redundancy", "UNREACHED"]
@@ -33,11 +33,7 @@ __all__ = ["greedy_columns", "count_light", "anneal_redundancy", "UNREACHED"]
 #: ``level`` value of a syndrome that is not a sum of at most ``d - 2`` chosen columns.
 UNREACHED = 255
 
-_u64 = types.uint64
-_i64 = types.int64
-
-
-@nb.njit(_i64(_i64, _i64, _i64, _u64[:], _u64[:], _i64), cache=True, nogil=True)
+@kernel("int64(int64, int64, int64, uint64[:], uint64[:], int64)", nogil=True)
 def greedy_columns(r, reach, n_max, prio, cols, n_fixed):  # pragma: no cover - compiled
     """Choose up to ``n_max`` columns of ``r`` bits, no ``reach + 1`` of them summing to 0.
 
@@ -81,7 +77,7 @@ def greedy_columns(r, reach, n_max, prio, cols, n_fixed):  # pragma: no cover - 
     return count
 
 
-@nb.njit(_i64(_u64[:, :], _i64, _i64, _i64, _i64[:]), cache=True, nogil=True)
+@kernel("int64(uint64[:, :], int64, int64, int64, int64[:])", nogil=True)
 def count_light(rows, t, D, limit, out):  # pragma: no cover - compiled
     """Codewords lighter than ``D`` among the sums of 1..``t`` rows of ``rows``.
 
@@ -140,8 +136,10 @@ def count_light(rows, t, D, limit, out):  # pragma: no cover - compiled
     return count
 
 
-@nb.njit(_i64(_u64[:, :], _i64, _i64, _i64, _i64, _i64, types.float64, _i64, _u64[:, :]),
-         cache=True, nogil=True)
+@kernel(
+    "int64(uint64[:, :], int64, int64, int64, int64, int64, float64, int64, uint64[:, :])",
+    nogil=True,
+)
 def anneal_redundancy(rows, lo, hi, t, D, iters, temperature, seed, best):  # pragma: no cover
     """Simulated annealing on the bits ``lo..hi-1`` of the rows of a systematic generator.
 
