@@ -629,6 +629,8 @@ def minimum_distance(
     # for every candidate) needs no estimate of d and finds light words itself at the
     # first levels, so it gets only a token pass.
     passes = 5 if target is not None else min(200, 5 + 40 * code.n // max(code.k, 1))
+    if code.k < 62 and (1 << code.k) <= passes * (code.k * (code.k + 1) // 2 + code.n):
+        passes = 0  # enumerating every codeword costs less than the passes themselves
     quick = _isd(code, _rng(seed), iterations=passes, deadline=None)
     best.offer(quick[0], quick[1])
     codewords_pre = quick[2]
