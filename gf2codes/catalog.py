@@ -60,13 +60,13 @@ Propagation
 From a stored ``[n, k, d]`` entry the standard rules [1]_ give proved codes without
 any computation: shorten ``[n-1, k-1, >= d]``, subcode ``[n, k-1, >= d]``, puncture
 ``[n-1, k, >= d-1]`` (at most ``d-1`` times, so the dimension stays), extend ``[n+1, k,
-d+1]`` for odd ``d``, pad with a zero coordinate ``[n+1, k, d]``. :meth:`Catalog.best`
-and :meth:`Catalog.table` answer with the best such derived code when it beats every
-stored one; a derived answer says so (``Entry.derived_from``) and is rebuilt on request
-from its recipe: the stored generator, shortened at its last pivot columns, punctured
-at its last coordinates, then extended and padded (:func:`pad`; :func:`replay` runs
-recipes that contain the ``pad`` step, which :func:`gf2codes.derive.rebuild` does not
-know). The distance of a derived answer is the proved lower bound the rules give.
+d+1]`` for odd ``d``, append a zero coordinate ``[n+1, k, d]``. :meth:`Catalog.pick`
+and :meth:`Catalog.length_table` answer with the best such derived code when it beats
+every stored one; a derived answer says so (``Entry.derived_from``) and is rebuilt on
+request from its recipe (:func:`gf2codes.derive.rebuild`): the stored generator,
+shortened at its last pivot columns, punctured at its last coordinates, then extended
+and given zero coordinates (:func:`gf2codes.derive.append_zeros`). The distance of a
+derived answer is the proved lower bound the rules give.
 
 Records (``export`` / ``import`` and ``catalog/*.jsonl``)
 --------------------------------------------------------
@@ -137,8 +137,6 @@ __all__ = [
     "equivalence_invariant",
     "code_facts",
     "are_equivalent",
-    "pad",
-    "replay",
     "derivation_steps",
     "row_to_hex",
     "hex_to_row",
@@ -576,53 +574,13 @@ def are_equivalent(a: Code, b: Code, *, facts_a: CodeFacts | None = None,
                        f"weight <= {fa.w_star} spanning the {side} onto each other")
 
 
-# ------------------------------------------------------------------ pad and replay
-def pad(code: Code, count: int = 1) -> Code:
-    """Append ``count`` zero coordinates: ``[n + count, k, d]`` (d unchanged).
-
-    The recipe gets the step ``{"op": "pad", "count": count}``, which :func:`replay`
-    understands.
-
-    >>> from gf2codes.families import hamming
-    >>> C = pad(hamming(3), 2); (C.n, C.k, C.d_lower, C.d_upper)
-    (9, 4, 3, 3)
-    """
-    from .derive import recipe_of
-
-    count = check_int("count", count, minimum=1)
-    G = np.hstack([code.G, np.zeros((code.k, count), dtype=np.uint8)])
-    return Code(G, name=f"{code.name}, padded by {count}" if code.name else None,
-                recipe=recipe_of(code) + [{"op": "pad", "count": count}],
-                d_lower=code.d_lower, d_upper=code.d_upper)
-
-
-def replay(recipe: Sequence[Mapping[str, Any]]) -> Code:
-    """Rebuild a code from a recipe, like :func:`gf2codes.derive.rebuild`, with ``pad`` steps.
-
-    >>> from gf2codes.families import hamming
-    >>> replay(pad(hamming(3), 1).recipe).n
-    8
-    """
-    from .derive import rebuild, recipe_of
-
-    steps = [dict(s) for s in recipe]
-    cut = next((i for i, s in enumerate(steps) if s.get("op") == "pad"), None)
-    if cut is None:
-        return rebuild(steps)
-    code = pad(rebuild(steps[:cut]), steps[cut].get("count", 1))
-    rest = steps[cut + 1:]
-    if not rest:
-        return code
-    head = code.with_info(recipe=())  # a matrix step holding the padded generator
-    return replay(recipe_of(head) + rest).with_info(recipe=steps)
-
-
+# ------------------------------------------------------------------ derivation
 def derivation_steps(code: Code, *, n: int, k: int, d_lower: int) -> list[dict[str, Any]]:
     """The steps that take a stored ``[n0, k0, >= d_lower]`` code to ``[n, k]``.
 
     Shorten at the last ``k0 - k`` pivot columns of the reduced echelon generator, then
-    puncture the last coordinates or extend (odd ``d_lower``) and pad, as
-    :meth:`Catalog.best` computed.
+    puncture the last coordinates or extend (odd ``d_lower``) and append zero
+    coordinates, as :meth:`Catalog.pick` computed.
     """
     steps: list[dict[str, Any]] = []
     s = code.k - k
@@ -639,7 +597,7 @@ def derivation_steps(code: Code, *, n: int, k: int, d_lower: int) -> list[dict[s
             steps.append({"op": "extend"})
             m -= 1
         if m:
-            steps.append({"op": "pad", "count": m})
+            steps.append({"op": "append-zeros", "count": m})
     return steps
 
 
@@ -724,7 +682,9 @@ class Entry:
             self.derived_from = None
         else:
             ops = ", ".join(_describe_step(s) for s in self.steps) or "unchanged"
-            self.derived_from = (f"entry {base.id} [{base.n}, {base.k}, {base.d}]: {ops}")
+            what = (f"[{base.n}, {base.k}, {base.d}]" if base.proved
+                    else f"[{base.n}, {base.k}], d ≥ {base.d}")
+            self.derived_from = f"entry {base.id} {what}: {ops}"
 
     @property
     def code(self) -> Code:
@@ -737,11 +697,11 @@ class Entry:
                 self._code = Code.from_packed(self._generator, self.n, recipe=recipe or None,
                                               d_lower=self.d_lower, d_upper=self.d_upper)
             else:
-                from .derive import recipe_of
+                from .derive import rebuild, recipe_of
 
                 base = self._base.code.with_info(recipe=(), name=None)
                 start = recipe_of(base)
-                self._code = replay(start + self.steps).with_info(
+                self._code = rebuild(start + self.steps).with_info(
                     d_lower=self.d_lower, name=f"from catalog entry {self._base.id}")
         return self._code
 
@@ -770,8 +730,9 @@ def _describe_step(step: Mapping[str, Any]) -> str:
     op = step["op"]
     if op in ("shorten", "puncture"):
         return f"{op} {len(step['coords'])}"
-    if op == "pad":
-        return f"pad {step.get('count', 1)}"
+    if op == "append-zeros":
+        count = step.get("count", 1)
+        return f"{count} zero coordinate{'s' if count != 1 else ''} appended"
     return op
 
 
@@ -1140,7 +1101,7 @@ class Catalog:
         return self._arrays
 
     # ---------------------------------------------------------------- queries
-    def _pick(self, ids, N0, K0, L0, U0, dvals, n: int, k: int) -> Entry | None:
+    def _choose(self, ids, N0, K0, L0, U0, dvals, n: int, k: int) -> Entry | None:
         mask = dvals > 0
         if not mask.any():
             return None
@@ -1158,9 +1119,9 @@ class Catalog:
         return Entry(id=None, n=n, k=k, d_lower=int(best_d), d_upper=None,
                      recipes=[], base=base, steps=steps)
 
-    def best(self, *, n: int | None = None, k: int | None = None,
+    def pick(self, *, n: int | None = None, k: int | None = None,
              d: int | None = None) -> Entry | None:
-        """The best known code for two of ``n``, ``k``, ``d`` (stored or derived).
+        """The code on file that answers two of ``n``, ``k``, ``d`` (stored or derived).
 
         * ``k`` and ``d``: the shortest code of dimension ``k`` with distance at least
           ``d`` (among equally short ones, the greatest ``d``);
@@ -1194,11 +1155,52 @@ class Catalog:
             k = int(dims.max())
         n = check_int("n", n, minimum=1)
         k = check_int("k", k, minimum=1, maximum=n)
-        return self._pick(ids, N0, K0, L0, U0, _reach_d(N0, K0, L0, n, k), n, k)
+        return self._choose(ids, N0, K0, L0, U0, _reach_d(N0, K0, L0, n, k), n, k)
 
-    def table(self, lengths: Iterable[int]) -> list[dict[str, Any]]:
-        """For every ``n`` in ``lengths`` and ``1 <= k <= n``: the best proved ``d`` (stored
-        or derived, 0 when unknown), whether it is stored, and the best upper bound.
+    def length_table(self, dimensions: Iterable[int], distances: Iterable[int]
+                     ) -> list[dict[str, Any]]:
+        """The shortest length on file for every ``k`` in ``dimensions`` and ``d`` in
+        ``distances``, beside the least length the bounds allow.
+
+        Each row, in order of ``k`` then ``d``::
+
+            {"k", "d", "n", "entry", "stored", "d_proved", "n_least", "least_by", "gap"}
+
+        ``n`` is the least length of a stored or derived ``[n, k, >= d]`` code (None when
+        the catalog has none), ``entry`` the stored entry it is (or is derived from),
+        ``stored`` whether it is that entry itself, ``d_proved`` whether that entry's
+        distance is proved exactly; ``n_least`` and ``least_by`` are
+        :func:`gf2codes.bounds.least_length`; ``gap = n - n_least`` (0: the length on file
+        is proved shortest; None when nothing is on file).
+        """
+        from .bounds import least_length
+
+        ids, N0, K0, L0, U0 = self._load_arrays()
+        big = np.iinfo(np.int64).max
+        rows = []
+        for k in dimensions:
+            k = check_int("k", k, minimum=1)
+            for d in distances:
+                d = check_int("d", d, minimum=1)
+                least = least_length(k, d)
+                row: dict[str, Any] = {"k": k, "d": d, "n": None, "entry": None,
+                                       "stored": False, "d_proved": False,
+                                       "n_least": least.n, "least_by": least.by, "gap": None}
+                lengths = _reach_n(N0, K0, L0, k, d) if ids.size else np.zeros(0, np.int64)
+                if lengths.size and int(lengths.min()) != big:
+                    n = int(lengths.min())
+                    cand = np.flatnonzero(lengths == n)
+                    here = cand[(N0[cand] == n) & (K0[cand] == k)]
+                    pick = int(here[0] if here.size else cand[0])
+                    row.update(n=n, entry=int(ids[pick]), stored=bool(here.size),
+                               d_proved=bool(L0[pick] == U0[pick]), gap=n - least.n)
+                rows.append(row)
+        return rows
+
+    def distance_table(self, lengths: Iterable[int]) -> list[dict[str, Any]]:
+        """For every ``n`` in ``lengths`` and ``1 <= k <= n``: the greatest proved ``d`` on
+        file (stored or derived, 0 when none), whether it is stored, and the best upper
+        bound. (The command line shows :meth:`length_table` instead.)
 
         Each row: ``{"n", "k", "d", "exact", "stored", "entry", "bound", "bound_by",
         "meets_bound"}``; ``entry`` is the stored id or the base id of a derived value.

@@ -1,5 +1,6 @@
 """New codes from old: puncture, shorten, extend, augment, expurgate, lengthen,
-direct sum, ``(u | u+v)``, Construction X, product, dual.
+appending zero coordinates, direct sum, Plotkin sum ``(u | u+v)``, Construction X,
+product, dual.
 
 Every function returns a new :class:`~gf2codes.code.Code` whose ``recipe`` is the
 input's recipe plus one step (``{"op": "shorten", "coords": [0, 1]}``); a binary
@@ -40,7 +41,7 @@ import numpy as np
 
 from . import linalg
 from .code import Code
-from .exceptions import ParameterError, ParseError
+from .exceptions import ParameterError, ParseError, check_int
 
 __all__ = [
     "dual",
@@ -51,7 +52,8 @@ __all__ = [
     "expurgate",
     "lengthen",
     "direct_sum",
-    "u_u_plus_v",
+    "plotkin_sum",
+    "append_zeros",
     "construction_x",
     "product",
     "recipe_of",
@@ -307,8 +309,8 @@ def direct_sum(a: Code, b: Code) -> Code:
                    lo, _min_known(a.d_upper, b.d_upper))
 
 
-def u_u_plus_v(u_code: Code, v_code: Code) -> Code:
-    """The ``(u | u+v)`` construction: ``[2n, k1 + k2, min(2 d1, d2)]`` (exactly).
+def plotkin_sum(u_code: Code, v_code: Code) -> Code:
+    """The Plotkin sum, the codewords ``(u | u+v)``: ``[2n, k1 + k2, min(2 d1, d2)]`` (exactly).
 
     Raises
     ------
@@ -316,8 +318,13 @@ def u_u_plus_v(u_code: Code, v_code: Code) -> Code:
         If the two codes have different lengths.
 
     >>> from gf2codes.families import even_weight, repetition
-    >>> C = u_u_plus_v(even_weight(4), repetition(4)); (C.n, C.k, C.d_lower, C.d_upper)
+    >>> C = plotkin_sum(even_weight(4), repetition(4)); (C.n, C.k, C.d_lower, C.d_upper)
     (8, 4, 4, 4)
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 2 section 9 (the ``|u|u+v|`` construction;
+       the name Plotkin sum is that of Huffman & Pless (2003), section 2.9, from memory).
     """
     if u_code.n != v_code.n:
         raise ParameterError(
@@ -331,7 +338,25 @@ def u_u_plus_v(u_code: Code, v_code: Code) -> Code:
     lo = (min(2 * u_code.d_lower, v_code.d_lower)
           if _known(u_code.d_lower, v_code.d_lower) else None)
     hi = _min_known(None if u_code.d_upper is None else 2 * u_code.d_upper, v_code.d_upper)
-    return _result(G, u_code, {"op": "u|u+v", "v": recipe_of(v_code)}, "(u|u+v)", lo, hi)
+    return _result(G, u_code, {"op": "plotkin-sum", "v": recipe_of(v_code)}, "Plotkin sum",
+                   lo, hi)
+
+
+def append_zeros(code: Code, count: int = 1) -> Code:
+    """Append ``count`` coordinates that are zero in every codeword: ``[n + count, k, d]``.
+
+    The distance and both of its bounds are unchanged. The recipe gets the step
+    ``{"op": "append-zeros", "count": count}``.
+
+    >>> from gf2codes.families import hamming
+    >>> C = append_zeros(hamming(3), 2); (C.n, C.k, C.d_lower, C.d_upper)
+    (9, 4, 3, 3)
+    """
+    count = check_int("count", count, minimum=1)
+    G = np.hstack([code.G, np.zeros((code.k, count), dtype=np.uint8)])
+    return _result(G, code, {"op": "append-zeros", "count": count},
+                   f"{count} zero coordinate{'s' if count != 1 else ''} appended",
+                   code.d_lower, code.d_upper)
 
 
 def construction_x(code: Code, subcode: Code, auxiliary: Code) -> Code:
@@ -451,8 +476,10 @@ def rebuild(recipe: Sequence[Mapping[str, Any]]) -> Code:
             code = UNARY_OPERATIONS[op](code)
         elif op == "direct-sum":
             code = direct_sum(code, rebuild(step["other"]))
-        elif op == "u|u+v":
-            code = u_u_plus_v(code, rebuild(step["v"]))
+        elif op == "plotkin-sum":
+            code = plotkin_sum(code, rebuild(step["v"]))
+        elif op == "append-zeros":
+            code = append_zeros(code, step.get("count", 1))
         elif op == "product":
             code = product(code, rebuild(step["other"]))
         elif op == "construction-x":

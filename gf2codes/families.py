@@ -89,8 +89,8 @@ __all__ = [
     "bch",
     "quadratic_residue",
     "cyclic",
-    "cyclic_codes",
-    "CyclicCode",
+    "generator_polynomials",
+    "GeneratorPolynomial",
     "quasi_cyclic",
     "double_circulant",
     "from_rows",
@@ -725,7 +725,7 @@ def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
     if g == 0 or _x_n_minus_1(n) % g != 0:
         raise ParameterError(
             f"Argument 'generator_polynomial' must divide x^{n} - 1, and {g} does not; "
-            f"gf2codes.families.cyclic_codes({n}) lists the divisors."
+            f"gf2codes.families.generator_polynomials({n}) lists the divisors."
         )
     if g.degree == n:
         raise ParameterError(
@@ -737,20 +737,22 @@ def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
 
 
 @dataclass(frozen=True)
-class CyclicCode:
-    """One cyclic code of length ``n``: its generator polynomial and dimension."""
+class GeneratorPolynomial:
+    """A divisor ``g`` of ``x^n - 1``: the generator polynomial of a cyclic code of length
+    ``n`` and dimension ``k = n - deg g``."""
 
-    generator_polynomial: galois.Poly
+    polynomial: galois.Poly
     n: int
     k: int
 
     @property
     def octal(self) -> str:
-        return polynomial_to_octal(self.generator_polynomial)
+        """``g`` in octal notation (see :func:`polynomial_to_octal`)."""
+        return polynomial_to_octal(self.polynomial)
 
     def build(self) -> Code:
-        """The code itself (see :func:`cyclic`)."""
-        return cyclic(self.n, self.generator_polynomial)
+        """The cyclic code that ``g`` generates (see :func:`cyclic`)."""
+        return cyclic(self.n, self.polynomial)
 
 
 def _gf2_mod(a: int, f: int) -> int:
@@ -840,8 +842,9 @@ def _factor_x_n_minus_1(n: int) -> tuple[list[galois.Poly], list[int]]:
     return ([galois.Poly.Int(f) for f in irreducible], [1 << a] * len(irreducible))
 
 
-def cyclic_codes(n: int, *, limit: int = 65536) -> list[CyclicCode]:
-    """Every nonzero cyclic code of length ``n``, one per divisor of ``x^n - 1``.
+def generator_polynomials(n: int, *, limit: int = 65536) -> list[GeneratorPolynomial]:
+    """The generator polynomial of every nonzero cyclic code of length ``n``: every
+    divisor of ``x^n - 1`` except itself.
 
     The divisors are the products of the irreducible factors of ``x^n - 1``
     (with multiplicity when ``n`` is even); ``g = x^n - 1`` (the zero code) is
@@ -859,7 +862,7 @@ def cyclic_codes(n: int, *, limit: int = 65536) -> list[CyclicCode]:
     ----------
     .. [1] MacWilliams & Sloane (1977), ch. 7 section 5.
 
-    >>> [(c.octal, c.k) for c in cyclic_codes(7)]
+    >>> [(g.octal, g.k) for g in generator_polynomials(7)]
     [('0o1', 7), ('0o3', 6), ('0o13', 4), ('0o15', 4), ('0o27', 3), ('0o35', 3), ('0o177', 1)]
     """
     n = check_int("n", n, minimum=1, maximum=MAX_LENGTH)
@@ -876,8 +879,8 @@ def cyclic_codes(n: int, *, limit: int = 65536) -> list[CyclicCode]:
         for _ in range(e):
             powers.append(powers[-1] * f)
         divisors = [d * q for d in divisors for q in powers]
-    out = [CyclicCode(d, n, n - d.degree) for d in divisors if d.degree < n]
-    out.sort(key=lambda c: (-c.k, int(c.generator_polynomial)))
+    out = [GeneratorPolynomial(d, n, n - d.degree) for d in divisors if d.degree < n]
+    out.sort(key=lambda g: (-g.k, int(g.polynomial)))
     return out
 
 

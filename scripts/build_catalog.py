@@ -7,12 +7,12 @@ Run from the repository root::
 
 The records cover every ``(n, k)`` with ``n <= 32`` at the best minimum distance this
 toolkit can prove, counting the codes that the catalog's propagation rules derive from
-a stored one (shorten, puncture, extend, pad, subcode). The steps:
+a stored one (shorten, puncture, extend, append zero coordinates, subcode). The steps:
 
 1. **Families**: repetition, even-weight, the whole space, Hamming, extended Hamming,
    simplex, Reed-Muller, the Golay codes, quadratic-residue codes, and every cyclic code
    of odd length up to 45 (which includes the primitive BCH codes of lengths 7, 15, 31).
-2. **Derivations**: ``(u | u+v)`` of the best codes found so far for every length up to
+2. **Derivations**: Plotkin sums ``(u | u+v)`` of the best codes found so far for every length up to
    16, kept where it beats the propagated value.
 3. **Seeded random circulant codes** (strategy ``random-double-circulant`` and
    ``random-quasi-cyclic``, seed 2024): double circulant ``[2l, l]`` and quasi-cyclic
@@ -28,7 +28,6 @@ already imply are written: the catalog answers the other cells with derived code
 from __future__ import annotations
 
 import argparse
-import json
 import sys
 import tempfile
 import time
@@ -45,10 +44,9 @@ from gf2codes.catalog import (  # noqa: E402
     _reach_d,
     derivation_steps,
     open_catalog,
-    replay,
 )
 from gf2codes.code import Code  # noqa: E402
-from gf2codes.derive import recipe_of, u_u_plus_v  # noqa: E402
+from gf2codes.derive import plotkin_sum, rebuild, recipe_of  # noqa: E402
 from gf2codes.distance import minimum_distance  # noqa: E402
 
 N_MAX = 32
@@ -95,7 +93,7 @@ class Pool:
         it = self.items[index]
         base = it["code"].with_info(recipe=(), name=None)
         steps = derivation_steps(base, n=n, k=k, d_lower=it["d"])
-        return replay(recipe_of(base) + steps) if steps else base
+        return rebuild(recipe_of(base) + steps) if steps else base
 
 
 def families(pool: Pool, log) -> None:
@@ -114,20 +112,13 @@ def families(pool: Pool, log) -> None:
     for p in (7, 17, 23, 31, 41):
         pool.offer(F.quadratic_residue(p), "family")
     for n in range(3, 46, 2):
-        for c in F.cyclic_codes(n):
+        for c in F.generator_polynomials(n):
             if c.k < n and c.k > 0:
                 pool.offer(c.build(), "family", time_limit=3.0)
     log(f"families and cyclic codes: {len(pool.items)} candidates")
 
 
-def _plain_recipe(code: Code) -> list:
-    recipe = recipe_of(code)
-    if "\"pad\"" in json.dumps(recipe):  # derive.rebuild cannot replay pad inside a step
-        recipe = recipe_of(code.with_info(recipe=()))
-    return recipe
-
-
-def u_plus_v(pool: Pool, log) -> None:
+def plotkin_sums(pool: Pool, log) -> None:
     D, who = pool.best_table()
     added = 0
     for n in range(2, N_MAX // 2 + 1):
@@ -142,13 +133,13 @@ def u_plus_v(pool: Pool, log) -> None:
                 for kk in (k1, k2):
                     if kk not in cache:
                         c = pool.materialise(who[n, kk], n, kk)
-                        cache[kk] = c.with_info(recipe=_plain_recipe(c))
-                code = u_u_plus_v(cache[k1], cache[k2])
+                        cache[kk] = c.with_info(recipe=recipe_of(c))
+                code = plotkin_sum(cache[k1], cache[k2])
                 d = pool.offer(code, "derivation")
                 if d is not None and d > D[2 * n, k1 + k2]:
                     D[2 * n, k1 + k2] = d
                     added += 1
-    log(f"(u|u+v): {added} cells improved")
+    log(f"Plotkin sums: {added} cells improved")
 
 
 def circulants(pool: Pool, log, seconds: float) -> None:
@@ -242,9 +233,9 @@ def main() -> int:
 
     pool = Pool()
     families(pool, log)
-    u_plus_v(pool, log)
+    plotkin_sums(pool, log)
     circulants(pool, log, args.circulant_time)
-    u_plus_v(pool, log)
+    plotkin_sums(pool, log)
     search_phase(pool, log, args.search_time)
     keep = select(pool)
     log(f"{len(keep)} records kept of {len(pool.items)} candidates")
@@ -255,7 +246,7 @@ def main() -> int:
                 it = pool.items[i]
                 cat.add(it["code"], d=it["d"], recipe=it["recipe"] or None,
                         source=it["source"], seed=it["seed"], proof={"method": it["method"]})
-            rows = cat.table(range(1, N_MAX + 1))
+            rows = cat.distance_table(range(1, N_MAX + 1))
             D, _ = pool.best_table()
             assert all(r["d"] == D[r["n"], r["k"]] for r in rows), "coverage lost"
             out = Path(args.output)

@@ -18,7 +18,9 @@ import numpy as np
 import pytest
 
 from gf2codes import catalog as C
+from gf2codes import derive as D
 from gf2codes import families as F
+from gf2codes.bounds import least_length
 from gf2codes.catalog import are_equivalent, code_facts, open_catalog
 from gf2codes.code import Code
 from gf2codes.derive import extend, puncture, shorten
@@ -134,7 +136,7 @@ def test_rules_reproved_by_exact_distance():
     assert minimum_distance(puncture(g, [22])).d == 6
     assert minimum_distance(shorten(g, [0])).d >= 7
     assert minimum_distance(extend(g)).d == 8
-    assert minimum_distance(C.pad(g, 2)).d == 7 and C.pad(g, 2).n == 25
+    assert minimum_distance(D.append_zeros(g, 2)).d == 7 and D.append_zeros(g, 2).n == 25
     sub = Code(g.G[:-1])
     assert minimum_distance(sub).d >= 7
 
@@ -147,7 +149,7 @@ def test_derived_answers_are_rebuilt_and_reproved(cat, query):
     for code, d in ((F.golay(), 7), (F.extended_golay(), 8), (F.hamming(3), 3),
                     (F.reed_muller(1, 4), 8)):
         cat.add(code, d=d, source="family")
-    entry = cat.best(**query)
+    entry = cat.pick(**query)
     assert entry is not None
     for key, value in query.items():
         if key != "d":
@@ -158,24 +160,24 @@ def test_derived_answers_are_rebuilt_and_reproved(cat, query):
     assert proved >= entry.d and proved >= query.get("d", 1)
     if entry.derived_from:
         assert entry.id is None and "entry" in entry.derived_from
-        assert C.replay(code.recipe) == code  # the recipe rebuilds it
+        assert D.rebuild(code.recipe) == code  # the recipe rebuilds it
 
 
 def test_best_modes_prefer_stored_and_report_none(cat):
-    assert cat.best(k=4, d=3) is None
+    assert cat.pick(k=4, d=3) is None
     h = cat.add(F.hamming(3), d=3, source="family")
-    assert cat.best(k=4, d=3).id == h
-    e = cat.best(k=4, d=4)
+    assert cat.pick(k=4, d=3).id == h
+    e = cat.pick(k=4, d=4)
     assert (e.n, e.k, e.d) == (8, 4, 4) and e.derived_from
-    assert cat.best(k=5, d=3) is None
-    assert cat.best(n=7, d=3).k == 4
+    assert cat.pick(k=5, d=3) is None
+    assert cat.pick(n=7, d=3).k == 4
     with pytest.raises(ParameterError, match="exactly two"):
-        cat.best(k=4)
+        cat.pick(k=4)
 
 
 def test_table_marks_cells_below_the_bound(cat):
     cat.add(F.hamming(3), d=3, source="family")
-    rows = {(r["n"], r["k"]): r for r in cat.table(range(1, 9))}
+    rows = {(r["n"], r["k"]): r for r in cat.distance_table(range(1, 9))}
     assert rows[7, 4]["d"] == 3 and rows[7, 4]["stored"] and rows[7, 4]["meets_bound"]
     assert rows[8, 4]["d"] == 4 and not rows[8, 4]["stored"] and rows[8, 4]["meets_bound"]
     assert rows[8, 8]["d"] == 0 and not rows[8, 8]["meets_bound"]
@@ -269,7 +271,7 @@ def test_migration_from_schema_1(tmp_path):
     with open_catalog(path) as cat:
         entry = cat.get(1)
         assert (entry.n, entry.k, entry.d, entry.origin) == (7, 4, 3, "user")
-        assert cat.best(k=4, d=4).n == 8
+        assert cat.pick(k=4, d=4).n == 8
         assert "migrated" in cat.info()["meta"]
         assert cat.add(F.cyclic(7, "x^3+x+1"), d=3) == 1
     con = sqlite3.connect(path)
@@ -402,7 +404,7 @@ def test_shipped_catalog_is_verified():
             steps = item.get("recipe")
             if not steps or "family" not in steps[0]:
                 continue  # a search recipe (strategy and seed): not replayable here
-            built = C.replay(steps)
+            built = D.rebuild(steps)
             perm = item.get("permutation")
             if perm is not None:
                 built = C._permuted(built, perm)
@@ -415,9 +417,9 @@ def test_new_catalog_starts_from_the_shipped_records(tmp_path):
     with open_catalog(tmp_path / "fresh.sqlite") as cat:
         assert time.perf_counter() - start < 10
         assert len(cat) == count and cat.entries(origin="user") == []
-        rows = cat.table(range(1, 33))
+        rows = cat.distance_table(range(1, 33))
         assert all(r["d"] >= 1 for r in rows)  # every (n, k) with n <= 32 is covered
-        golay = cat.best(k=12, d=8)
+        golay = cat.pick(k=12, d=8)
         assert (golay.n, golay.d) == (24, 8)
         assert cat.import_shipped().added == 0  # idempotent
 
@@ -429,8 +431,8 @@ def _write(tmp_path, name, rows):
     return str(p)
 
 
-def test_cli_add_list_show_best_remove(cli, tmp_path, capsys):
-    from gf2codes.formats import rows_to_strings
+def test_cli_add_list_show_pick_remove(cli, tmp_path, capsys):
+    from gf2codes.formats import parse_text_matrix, rows_to_strings
 
     f = _write(tmp_path, "h.txt", rows_to_strings(F.hamming(3).G))
     assert cli(["catalog", "--catalog", str(tmp_path / "a.sqlite"), "add", f]) == 0
@@ -444,8 +446,12 @@ def test_cli_add_list_show_best_remove(cli, tmp_path, capsys):
     listed = json.loads(capsys.readouterr().out)
     assert [e["id"] for e in listed] == [eid] and "file" in listed[0]["recipes"]
     assert cli(["catalog", "show", str(eid), "--catalog", cat_path]) == 0
-    assert "weight distribution: A_0=1, A_3=7, A_4=7, A_7=1" in capsys.readouterr().out
-    assert cli(["catalog", "best", "--k", "4", "--d", "3", "--catalog", cat_path, "--json"]) == 0
+    shown = capsys.readouterr().out
+    assert "weight distribution: A0=1 A3=7 A4=7 A7=1" in shown
+    # the generator block is a matrix file that reads back as the same code
+    block = shown[shown.index("# entry"):]
+    assert Code(parse_text_matrix(block)) == F.hamming(3)
+    assert cli(["catalog", "pick", "--k", "4", "--d", "3", "--catalog", cat_path, "--json"]) == 0
     assert json.loads(capsys.readouterr().out)["n"] == 7
     assert cli(["catalog", "remove", str(eid), "--catalog", cat_path]) == 0
     assert cli(["catalog", "show", str(eid), "--catalog", cat_path]) == 2
@@ -465,11 +471,81 @@ def test_cli_add_refuses_what_it_cannot_prove(cli, tmp_path, capsys):
     assert "not proved" in out and "added as entry" in out
 
 
+def test_length_table_rows(cat):
+    """Rows k, columns d: the least length on file beside the least length the bounds allow.
+    Hamming [7, 4, 3] on file gives [7, 4, 3] itself (Hamming bound: 7 is least, MacWilliams
+    & Sloane ch. 1 Theorem 6), [8, 4, 4] by extending it, [6, 3, 3] by shortening."""
+    cat.add(F.hamming(3), d=3, source="family")
+    rows = {(r["k"], r["d"]): r for r in cat.length_table(range(1, 5), range(1, 6))}
+    assert (rows[4, 3]["n"], rows[4, 3]["n_least"], rows[4, 3]["gap"]) == (7, 7, 0)
+    assert rows[4, 3]["stored"] and rows[4, 3]["d_proved"]
+    assert (rows[4, 4]["n"], rows[4, 4]["gap"], rows[4, 4]["stored"]) == (8, 0, False)
+    assert (rows[3, 3]["n"], rows[3, 3]["gap"]) == (6, 0)
+    assert rows[4, 5]["n"] is None and rows[4, 5]["gap"] is None  # nothing reaches d = 5
+    assert list(rows) == [(k, d) for k in range(1, 5) for d in range(1, 6)]
+    for r in rows.values():
+        assert r["n_least"] == least_length(r["k"], r["d"]).n
+        if r["n"] is not None:
+            assert r["gap"] == r["n"] - r["n_least"] >= 0
+            code = cat.pick(k=r["k"], d=r["d"])
+            assert (code.n, code.k) == (r["n"], r["k"]) and code.d >= r["d"]
+
+
+def _grid_cells(text):
+    """The (k, d) -> cell text of a printed grid (every label must be there)."""
+    lines = text.splitlines()
+    head = next(i for i, line in enumerate(lines) if line.lstrip().startswith("d="))
+    ds = [int(h[2:]) for h in lines[head].split()]
+    cells = {}
+    for line in lines[head + 1:]:
+        if not line.startswith("k="):
+            break
+        label, *values = line.split()
+        assert len(values) == len(ds), line
+        for d, v in zip(ds, values, strict=True):
+            cells[int(label[2:]), d] = v
+    return cells
+
+
+def test_cli_table_piped_at_80_columns_shows_every_cell(tmp_path):
+    """Through a real pipe with COLUMNS=80 and a grid wider than 80 columns: every row and
+    column label and every cell is printed, nothing elided or wrapped."""
+    env = {**_env(), "GF2CODES_CATALOG": str(tmp_path / "p.sqlite"), "COLUMNS": "80"}
+    env.pop("GF2CODES_SHIPPED_CATALOG")
+    run = subprocess.run([sys.executable, "-m", "gf2codes", "catalog", "table", "--k", "1-20",
+                          "--d", "1-16"], env=env, capture_output=True, text=True, timeout=120)
+    assert run.returncode == 0, run.stderr
+    assert "…" not in run.stdout and "..." not in run.stdout
+    cells = _grid_cells(run.stdout)
+    assert set(cells) == {(k, d) for k in range(1, 21) for d in range(1, 17)}
+    assert max(len(line) for line in run.stdout.splitlines()) > 80  # wider than the terminal
+    assert cells[12, 8] == "24"  # extended Golay [24, 12, 8] is shipped; Hamming bound 24
+    assert cells[4, 3] == "7" and cells[1, 16] == "16"
+    low, gap = cells[10, 6].split("+")  # an open cell: n on file above the bounds
+    assert int(low) == least_length(10, 6).n and (gap == "?" or int(gap) >= 1)
+
+
+def test_cli_table_open_cells_and_json(cli, tmp_path, capsys):
+    cat_path = ["--catalog", str(tmp_path / "o.sqlite")]
+    assert cli(["catalog", "table", "--k", "8-12", "--d", "5-6", "--json", *cat_path]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert out["k"] == [8, 12] and out["d"] == [5, 6] and len(out["cells"]) == 10
+    open_cells = [c for c in out["cells"] if c["gap"] != 0]
+    assert cli(["catalog", "table", "--k", "8-12", "--d", "5-6", "--open", *cat_path]) == 0
+    lines = capsys.readouterr().out.splitlines()
+    assert len(lines) == len(open_cells) + 1
+    for c, line in zip(open_cells, lines, strict=False):
+        assert line.startswith(f"k={c['k']} d={c['d']}: ")
+        assert f"bounds rule out n < {c['n_least']}" in line and "to close:" in line
+    assert lines[-1].startswith(f"{10 - len(open_cells)} of 10 cells proved shortest")
+    assert cli(["catalog", "table", "--k", "0-3", *cat_path]) == 2
+
+
 def test_cli_table_export_import(cli, tmp_path, capsys):
     cat_path = ["--catalog", str(tmp_path / "t.sqlite")]
-    assert cli(["catalog", "table", "--n", "1-16", *cat_path]) == 0
+    assert cli(["catalog", "table", "--k", "1-8", "--d", "1-6", *cat_path]) == 0
     out = capsys.readouterr().out
-    assert "n\\k" in out and "cells meet the bound" in out
+    assert "d=6" in out and "k=8" in out and "cells proved shortest" in out
     exported = tmp_path / "all.jsonl"
     assert cli(["catalog", "export", "-o", str(exported), *cat_path]) == 0
     capsys.readouterr()
@@ -507,7 +583,7 @@ def test_cli_through_a_subprocess(tmp_path):
               "cli.COMMANDS.setdefault('catalog', '._catalog'); sys.exit(cli.main(sys.argv[1:]))")
     env = {**_env(), "GF2CODES_CATALOG": str(tmp_path / "s.sqlite")}
     env.pop("GF2CODES_SHIPPED_CATALOG")
-    run = subprocess.run([sys.executable, "-c", script, "catalog", "best", "--k", "12", "--d",
+    run = subprocess.run([sys.executable, "-c", script, "catalog", "pick", "--k", "12", "--d",
                           "8", "--json"], env=env, capture_output=True, text=True, timeout=120)
     assert run.returncode == 0, run.stderr
     out = json.loads(run.stdout)

@@ -133,14 +133,14 @@ def test_direct_sum_rule(a, b):
 
 
 @given(st.integers(3, 7), st.integers(0, 2**32 - 1))
-def test_u_u_plus_v_rule(n, seed):
+def test_plotkin_sum_rule(n, seed):
     """d = min(2 d1, d2) exactly (M&S ch. 2 section 9)."""
     rng = np.random.default_rng(seed)
     u = _exact(Code(np.vstack([np.eye(1, n, 0, dtype=np.uint8),
                                (rng.random((2, n)) < 0.5).astype(np.uint8)])))
     v = _exact(Code(np.vstack([np.eye(1, n, n - 1, dtype=np.uint8),
                                (rng.random((2, n)) < 0.5).astype(np.uint8)])))
-    W = D.u_u_plus_v(u, v)
+    W = D.plotkin_sum(u, v)
     assert (W.n, W.k) == (2 * n, u.k + v.k)
     assert brute_distance(W.G) == W.d_lower == W.d_upper == min(2 * u.d_lower, v.d_lower)
 
@@ -193,8 +193,8 @@ def test_rebuild_round_trips():
         {"op": "extend"},
     )
     binary = D.construction_x(
-        D.u_u_plus_v(F.reed_muller(1, 3), F.repetition(8)),
-        D.u_u_plus_v(F.repetition(8), F.repetition(8)),
+        D.plotkin_sum(F.reed_muller(1, 3), F.repetition(8)),
+        D.plotkin_sum(F.repetition(8), F.repetition(8)),
         D.direct_sum(F.repetition(2), F.even_weight(3)),
     )
     prod = D.product(F.even_weight(3), D.dual(F.golay()))
@@ -226,7 +226,7 @@ def test_rebuild_errors():
     (lambda C: D.puncture(C, range(7)), "Cannot puncture all 7"),
     (lambda C: D.shorten(C, []), "at least one"),
     (lambda C: D.shorten(C, "0-5"), "zero word"),
-    (lambda C: D.u_u_plus_v(C, F.repetition(8)), "length of 'u_code', 7, not 8"),
+    (lambda C: D.plotkin_sum(C, F.repetition(8)), "length of 'u_code', 7, not 8"),
     (lambda C: D.construction_x(C, F.repetition(7).dual(), F.repetition(1)),
      "must be contained"),
     (lambda C: D.construction_x(C, D.expurgate(C), F.even_weight(3)),
@@ -302,3 +302,16 @@ def test_cli_derive_parity_check_and_errors(tmp_path, capsys):
         assert len(err.splitlines()) == 1 and match in err
     assert main(["derive", str(tmp_path / "missing.txt"), "extend"]) == 2
     assert "no such file" in capsys.readouterr().err
+
+
+def test_append_zeros_rebuilds_inside_a_recipe():
+    """Zero coordinates then a shortening: the recipe replays to the same subspace; the
+    distance is unchanged by the zeros (a zero coordinate adds weight to no codeword)."""
+    H = F.hamming(3)
+    C = D.shorten(D.append_zeros(H, 2), [0])
+    assert (C.n, C.k) == (8, 3)
+    assert C.recipe[-2] == {"op": "append-zeros", "count": 2}
+    assert D.rebuild(C.recipe) == C
+    assert not np.any(D.append_zeros(H, 2).G[:, 7:])
+    with pytest.raises(ParameterError, match="Argument 'count' must be at least 1, not 0"):
+        D.append_zeros(H, 0)

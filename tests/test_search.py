@@ -226,7 +226,7 @@ class _FakeCatalog:
         self.entries = [_FakeEntry(c, d) for c, d in codes]
         self.added, self.closed = [], False
 
-    def best(self, *, n=None, k=None, d=None):
+    def pick(self, *, n=None, k=None, d=None):
         fit = [e for e in self.entries if (k is None or e.k == k) and (d is None or e.d >= d)]
         return min(fit, key=lambda e: e.n) if fit else None
 

@@ -1,10 +1,10 @@
 """``gf2codes catalog ...``: the local catalog of proved codes.
 
-Sub-commands: ``add FILE``, ``list``, ``show ID``, ``best``, ``table``, ``export``,
+Sub-commands: ``add FILE``, ``list``, ``show ID``, ``pick``, ``table``, ``export``,
 ``import FILE``, ``remove ID``, ``info``. Every one takes ``--catalog PATH`` (default:
 ``GF2CODES_CATALOG``, else ``$XDG_DATA_HOME/gf2codes/catalog.sqlite``) and ``--json``.
 
-Exit status: 0 on success; 1 when ``best`` finds nothing or ``import`` rejected a line;
+Exit status: 0 on success; 1 when ``pick`` finds nothing or ``import`` rejected a line;
 2 for errors (one line on standard error).
 """
 
@@ -19,6 +19,7 @@ from rich.console import Console
 
 from ..exceptions import CatalogError, ParameterError, TooExpensiveError, check_int
 from ._common import parse_range, print_json
+from ._text import length_grid, matrix_block, triple_text, weight_text
 
 # Plain text: codes print as [n, k, d], which rich would take for markup.
 console = Console(highlight=False, markup=False)
@@ -44,7 +45,7 @@ def _filters(parser: argparse.ArgumentParser) -> None:
 
 def register(subparsers: Any) -> None:
     parser = subparsers.add_parser(
-        "catalog", help="the local catalog of proved codes: add, list, best, table, ...",
+        "catalog", help="the local catalog of proved codes: add, list, pick, table, ...",
         description="A local SQLite catalog of codes with proved parameters and the recipes "
                     "that made them. A new catalog starts from the shipped seed records.",
     )
@@ -75,22 +76,30 @@ def register(subparsers: Any) -> None:
     _common_options(p, suppress=True)
 
     p = sub.add_parser(
-        "best", help="the best known code for (k, d), (n, k) or (n, d)",
-        description="Give two of --n, --k, --d. (k, d): the shortest code; (n, k): the "
-                    "greatest d; (n, d): the greatest k. Derived codes (shortened, punctured, "
-                    "extended, padded, subcodes of stored ones) count, and say so.")
+        "pick", help="take the code on file that answers two of n, k, d",
+        description="Give two of --n, --k, --d. --k --d: the shortest code on file with k "
+                    "data bits and distance at least d; --n --k: the one with the largest "
+                    "distance; --n --d: the one with the most data bits. Codes made from "
+                    "stored ones (shortened, punctured, extended, with zero coordinates "
+                    "appended, subcodes) count, and say so.")
     p.add_argument("--n", type=int)
     p.add_argument("--k", type=int)
     p.add_argument("--d", type=int)
-    p.add_argument("--rows", action="store_true", help="print the generator rows")
+    p.add_argument("--rows", action="store_true",
+                   help="also print the generator rows, as a matrix file")
     p.add_argument("--prove-time", type=float, default=2.0, metavar="S",
                    help="seconds for proving the exact d of a derived answer (0: do not)")
     _common_options(p, suppress=True)
 
-    p = sub.add_parser("table", help="best proved d per (n, k) beside the best upper bound")
-    p.add_argument("--n", default="1-32", metavar="R", help="lengths, e.g. 1-32 (default)")
-    p.add_argument("--below", action="store_true",
-                   help="list only the cells where the catalog is below the bound")
+    p = sub.add_parser(
+        "table", help="shortest length on file for k data bits and distance d",
+        description="A grid with a row per k (data bits) and a column per d (distance): "
+                    "each cell is the shortest length n of a code on file beside the least "
+                    "length the bounds allow. --open lists the open cells instead.")
+    p.add_argument("--k", default="1-16", metavar="R", help="data bits, e.g. 1-16 (default)")
+    p.add_argument("--d", default="1-12", metavar="R", help="distances, e.g. 1-12 (default)")
+    p.add_argument("--open", action="store_true",
+                   help="list only the open cells, with what would close each one")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("export", help="write entries as JSON lines")
@@ -120,16 +129,8 @@ def _range(name: str, text: str | None) -> range | None:
     return None if text is None else parse_range(name, text)
 
 
-def _dd(entry) -> str:
-    if entry.proved:
-        return f"{entry.d}"
-    if entry.d_upper is None:
-        return f">={entry.d}"
-    return f"{entry.d_lower}..{entry.d_upper}"
-
-
 def _label(entry) -> str:
-    return f"[{entry.n}, {entry.k}, {_dd(entry)}]"
+    return triple_text(entry.n, entry.k, entry.d_lower, entry.d_upper)
 
 
 def run(args: argparse.Namespace) -> int:
@@ -186,7 +187,7 @@ def _list(cat, args) -> int:
                      "d_lower": e.d_lower, "d_upper": e.d_upper, "origin": e.origin,
                      "recipes": [r["source"] for r in e.recipes]} for e in entries])
         return 0
-    rows = [("id", "[n, k, d]", "origin", "recipes", "first recipe")]
+    rows = [("id", "code", "origin", "recipes", "first recipe")]
     for e in entries:
         first = e.recipes[0] if e.recipes else None
         rows.append((str(e.id), _label(e), e.origin or "", str(len(e.recipes)),
@@ -224,11 +225,11 @@ def _show(cat, args) -> int:
         print_json(entry.to_dict())
         return 0
     console.print(f"entry {entry.id}: {_label(entry)}  ({entry.origin}; added {entry.added_at} "
-                  f"by gf2codes {entry.added_by})")
+                  f"by gf2codes {entry.added_by})", soft_wrap=True)
     if entry.proved:
         console.print(f"  d = {entry.d} proved", end="")
     else:
-        console.print(f"  {entry.d_lower} <= d <= {entry.d_upper} (only the interval is "
+        console.print(f"  {entry.d_lower} ≤ d ≤ {entry.d_upper} (only the interval is "
                       "proved)", end="")
     if entry.proof:
         details = ", ".join(f"{k} {v}" for k, v in entry.proof.items())
@@ -236,27 +237,27 @@ def _show(cat, args) -> int:
     else:
         console.print()
     if entry.weights:
-        nz = ", ".join(f"A_{i}={a}" for i, a in enumerate(entry.weights) if a)
-        console.print(f"  weight distribution: {nz}")
-    console.print(f"  invariant: {entry.invariant}")
+        console.print(f"  weight distribution: {weight_text(entry.weights)}", soft_wrap=True)
+    console.print(f"  invariant: {entry.invariant}", soft_wrap=True)
     console.print(f"  recipes ({len(entry.recipes)}):")
     for r in entry.recipes:
         perm = " (rebuilds a permuted copy; permutation kept)" if r.get("permutation") else ""
         console.print(f"    - {_recipe_text(r)}{perm}  [{r['added']}]", soft_wrap=True)
-    console.print("  generator (reduced echelon form):")
-    for row in rows_to_strings(entry.code.rref_generator):
-        console.print(f"    {row}", soft_wrap=True)
+    block = matrix_block(rows_to_strings(entry.code.rref_generator),
+                         f"entry {entry.id}: generator matrix in reduced echelon form, "
+                         f"{entry.k} x {entry.n}")
+    sys.stdout.write("\n".join(block) + "\n")
     return 0
 
 
-def _best(cat, args) -> int:
+def _pick(cat, args) -> int:
     from ..distance import minimum_distance
     from ..formats import rows_to_strings
 
     for name in ("n", "k", "d"):
         if getattr(args, name) is not None:
             check_int(f"--{name}", getattr(args, name), minimum=1)
-    entry = cat.best(n=args.n, k=args.k, d=args.d)
+    entry = cat.pick(n=args.n, k=args.k, d=args.d)
     asked = ", ".join(f"{x} = {getattr(args, x)}" for x in ("n", "k", "d")
                       if getattr(args, x) is not None)
     if entry is None:
@@ -292,37 +293,54 @@ def _best(cat, args) -> int:
         if proof_note:
             console.print(f"  {proof_note}")
     if args.rows:
-        for row in rows_to_strings(entry.code.G):
-            console.print(f"    {row}", soft_wrap=True)
+        shown = label if exact is None else f"[{entry.n}, {entry.k}, {exact}]"
+        block = matrix_block(rows_to_strings(entry.code.G),
+                             f"generator matrix of {shown}, {entry.k} x {entry.n}")
+        sys.stdout.write("\n".join(block) + "\n")
     return 0
 
 
 def _table(cat, args) -> int:
-    lengths = parse_range("n", args.n)
-    check_int("n", lengths.start, minimum=1)
-    rows = cat.table(lengths)
+    ks, ds = parse_range("k", args.k), parse_range("d", args.d)
+    check_int("k", ks.start, minimum=1)
+    check_int("d", ds.start, minimum=1)
+    rows = cat.length_table(ks, ds)
     if args.json:
-        print_json(rows)
+        print_json({"k": [ks[0], ks[-1]], "d": [ds[0], ds[-1]], "cells": rows})
         return 0
-    below = [r for r in rows if not r["meets_bound"]]
-    if args.below:
-        for r in below:
-            have = f"d >= {r['d']}" if r["d"] else "nothing"
-            console.print(f"[{r['n']}, {r['k']}]: {have}; bound {r['bound']} ({r['bound_by']})")
+    settled = [r for r in rows if r["gap"] == 0]
+    missing = [r for r in rows if r["n"] is None]
+    out: list[str] = []
+    if args.open:
+        for r in rows:
+            if r["gap"] == 0:
+                continue
+            k, d, low = r["k"], r["d"], r["n_least"]
+            bound = f"bounds rule out n < {low} ({r['least_by']})"
+            if r["n"] is None:
+                out.append(f"k={k} d={d}: nothing on file; {bound}; to close: find a "
+                           f"[{low}, {k}, ≥{d}] code, or rule out length {low}")
+                continue
+            made = "stored" if r["stored"] else "derived from entry"
+            need = (f"a [{low}, {k}, ≥{d}] code, or a proof that none exists" if r["gap"] == 1
+                    else f"a code of length {low} to {r['n'] - 1}, or proofs that none exist")
+            out.append(f"k={k} d={d}: on file n = {r['n']} ({made} {r['entry']}); {bound}; "
+                       f"to close: {need}")
     else:
-        kmax = max(lengths)
-        cells = {(r["n"], r["k"]): (str(r["d"]) if r["meets_bound"] else
-                                   f"{r['d'] or '-'}/{r['bound']}") for r in rows}
-        width = max(3, max(len(c) for c in cells.values()) + 1)
-        out = ["n\\k" + "".join(f"{k:>{width}}" for k in range(1, kmax + 1))]
-        for n in lengths:
-            out.append(f"{n:>3}" + "".join(f"{cells[(n, k)]:>{width}}"
-                                           for k in range(1, n + 1)))
-        sys.stdout.write("\n".join(out) + "\n")
-        console.print("a cell d is the best proved distance and meets the best upper bound; "
-                      "d/b means the catalog has d and the bound is b", soft_wrap=True)
-    console.print(f"{len(rows) - len(below)} of {len(rows)} cells meet the bound, "
-                  f"{len(below)} below")
+        out.append("shortest length n on file: k data bits (rows), distance at least d "
+                   "(columns)")
+        out += length_grid({(r["k"], r["d"]): (r["n_least"], r["n"]) for r in rows}, ks, ds)
+        out += ["N     a code of length N is on file and the bounds rule out N-1: proved "
+                "shortest",
+                "N+g   the bounds rule out lengths below N; the shortest code on file has "
+                "length N+g",
+                "N+?   the bounds rule out lengths below N; nothing on file",
+                "catalog pick --k K --d D gives the code of a cell; catalog table --open",
+                "lists what would close each open cell"]
+    out.append(f"{len(settled)} of {len(rows)} cells proved shortest, "
+               f"{len(rows) - len(settled) - len(missing)} open, {len(missing)} with nothing "
+               "on file")
+    sys.stdout.write("\n".join(out) + "\n")
     return 0
 
 
@@ -389,5 +407,5 @@ def _info(cat, args) -> int:
     return 0
 
 
-_HANDLERS = {"add": _add, "list": _list, "show": _show, "best": _best, "table": _table,
+_HANDLERS = {"add": _add, "list": _list, "show": _show, "pick": _pick, "table": _table,
              "export": _export, "import": _import, "remove": _remove, "info": _info}

@@ -119,7 +119,7 @@ def run(args) -> int:
     interrupted = False
     try:
         if cat is not None:
-            entry = cat.best(**kw)
+            entry = cat.pick(**kw)
             if entry is not None:
                 start.append(entry.code)
 

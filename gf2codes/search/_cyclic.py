@@ -44,7 +44,7 @@ class Cyclic(Strategy):
             if m > families.MAX_LENGTH:
                 return
             try:
-                codes = families.cyclic_codes(m, limit=20_000)
+                codes = families.generator_polynomials(m, limit=20_000)
             except ParameterError:
                 yield None
                 continue
