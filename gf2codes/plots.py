@@ -171,7 +171,7 @@ def block_error_figure(curves: Sequence[ChannelCurve], *, title: str | None = No
         ax.set_ylim(bottom=max(floor / 3, 1e-300), top=1.5)
     ax.set_xlabel("crossover probability p")
     ax.set_ylabel("probability per block")
-    ax.set_title(title or "Decoding on a binary symmetric channel")
+    ax.set_title(title or "How often does each code fail as the channel gets noisier?")
     ax.grid(True, which="major", alpha=0.4)
     ax.grid(True, which="minor", alpha=0.12)
     fig.legend(fontsize="small", loc="outside right upper")
@@ -222,7 +222,8 @@ def weight_distribution_figure(distribution: Sequence[int], *, title: str | None
     ax.set_xlabel("weight i")
     ax.set_ylabel("number of codewords A_i")
     d = next((i for i in idx if i), None)
-    ax.set_title(title or f"Weight distribution (n = {n}" + (f", d = {d})" if d else ")"))
+    ax.set_title(title or f"How many codewords has each weight? (n = {n}"
+                 + (f", d = {d})" if d else ")"))
     ax.grid(True, axis="y", alpha=0.3)
     return fig
 
@@ -323,7 +324,7 @@ def bounds_figure(k: int, n_values: Sequence[int], *, mark: Sequence[tuple[int, 
                 mec="k", label=mark_label)
     ax.set_xlabel("length n")
     ax.set_ylabel("minimum distance d")
-    ax.set_title(title or f"Bounds on d for binary linear codes of dimension k = {k}")
+    ax.set_title(title or f"How large can d be for {k} data bits at each length n?")
     ax.grid(True, alpha=0.3)
     ax.set_xlim(ns[0] - 0.5, ns[-1] + 0.5)
     ax.set_ylim(0, max(max(best), max((m[1] for m in mark), default=0)) + 1)

@@ -337,14 +337,47 @@ def test_cli_distance_json_and_text(capsys):
 
 
 def test_cli_table(capsys):
+    """Rows k, columns d; each cell the least length the upper bounds allow beside the
+    length an existence bound guarantees."""
     from gf2codes.cli import main
 
-    assert main(["bounds", "--table", "--n", "1-12", "--k", "1-6", "--json"]) == 0
+    assert main(["bounds", "--table", "--k", "1-6", "--d", "1-5", "--json"]) == 0
     out = json.loads(capsys.readouterr().out)
-    assert out["best_d"]["7"]["4"] == 3 and out["best_d"]["8"]["4"] == 4
-    assert "5" not in out["best_d"]["4"]  # k <= n only
-    assert main(["bounds", "--table", "--n", "1-12"]) == 0
-    assert "rows n" in capsys.readouterr().out
+    assert out["k"] == [1, 6] and out["d"] == [1, 5] and len(out["cells"]) == 30
+    cells = {(c["k"], c["d"]): c for c in out["cells"]}
+    # [6, 4, 3] would need 2^4 (1 + 6) = 112 > 2^6 words (sphere packing): 7 is least,
+    # and the Hamming code [7, 4, 3] is guaranteed by Varshamov's bound (computed here).
+    assert 2**4 * (1 + 6) > 2**6 and 2**4 * (1 + 7) <= 2**7
+    assert cells[4, 3]["n_least"] == 7 == cells[4, 3]["n_exists"]
+    assert cells[1, 5]["n_least"] == 5 == cells[1, 5]["n_exists"]  # the repetition code
+    for (k, d), c in cells.items():
+        assert c["n_least"] == B.least_length(k, d).n
+        assert c["n_exists"] == B.existence_length(k, d).n >= c["n_least"]
+    assert main(["bounds", "--table", "--k", "4", "--d", "3-4"]) == 0
+    text = capsys.readouterr().out
+    assert "k=4" in text and "d=3" in text and "d=4" in text and "cells settled" in text
+
+
+def test_cli_table_piped_at_80_columns_shows_every_cell():
+    """A grid wider than 80 columns through a real pipe with COLUMNS=80: every label and
+    every cell is printed, nothing elided (0.1 elided cells and row labels into '…')."""
+    env = dict(os.environ, PYTHONPATH=str(REPO), COLUMNS="80")
+    proc = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--table", "--k",
+                           "1-20", "--d", "1-14"], capture_output=True, text=True, env=env,
+                          timeout=300)
+    assert proc.returncode == 0, proc.stderr
+    assert "…" not in proc.stdout
+    lines = proc.stdout.splitlines()
+    head = next(i for i, line in enumerate(lines) if line.lstrip().startswith("d="))
+    assert lines[head].split() == [f"d={d}" for d in range(1, 15)]
+    assert len(lines[head]) > 80
+    rows = lines[head + 1: head + 21]
+    assert [r.split()[0] for r in rows] == [f"k={k}" for k in range(1, 21)]
+    for k, row in enumerate(rows, start=1):
+        for d, cell in enumerate(row.split()[1:], start=1):
+            low, _, gap = cell.partition("+")
+            assert int(low) == B.least_length(k, d).n
+            assert int(low) + int(gap or 0) == B.existence_length(k, d).n
 
 
 @pytest.mark.parametrize("argv,msg", [
@@ -353,6 +386,8 @@ def test_cli_table(capsys):
     (["--n", "x", "--k", "2"], "Argument 'n' must be an integer, not 'x'."),
     (["--n", "5"], "exactly two of"),
     (["--table", "--d", "3", "--n", "1-4"], "must not be given with --table"),
+    (["--table", "--k", "0-4"], "Argument 'k' must be at least 1, not 0."),
+    (["--table", "--d", "1-200"], "Argument 'd' must be at most 128 with --table, not 200."),
 ])
 def test_cli_bad_input(capsys, argv, msg):
     from gf2codes.cli import main

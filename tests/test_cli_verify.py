@@ -49,7 +49,19 @@ def test_json_keys_and_values_for_extended_golay(tmp_path, capsys, golay24):
 def test_demo_file_and_table_output(capsys):
     assert main(["verify", str(DEMO)]) == 0
     out = capsys.readouterr().out
-    assert "[22, 16, 4]" in out and "d proved" in out and "4:255" in out
+    # the first line leads with the file, the verdict and the parameters
+    assert out.splitlines()[0] == f"{DEMO}  PROVED  n=22 k=16 d=4"
+    assert "A0=1 A4=255 A6=2264" in out and "4:255" not in out
+
+
+def test_first_line_of_an_unproved_code(tmp_path, capsys):
+    rng = np.random.default_rng(12)
+    G = np.hstack([np.eye(60, dtype=np.uint8), rng.integers(0, 2, (60, 140))])
+    f = tmp_path / "big.txt"
+    f.write_text("\n".join("".join(map(str, r)) for r in G) + "\n")
+    assert main(["verify", str(f), "--time-limit", "0.3"]) == 0
+    first = capsys.readouterr().out.splitlines()[0]
+    assert first.startswith(f"{f}  NOT PROVED  n=200 k=60  ") and " ≤ d ≤ " in first
 
 
 def test_parity_check_input(tmp_path, capsys, hamming74):

@@ -267,9 +267,13 @@ def test_channel_table(capsys, files):
     status, out, _ = run_cli(capsys, "channel", files / "hamming.txt", files / "golay.json",
                              "--p", "1e-4", "1e-3", "1e-2")
     assert status == 0
-    assert "[7, 4, 3]" in out and "[24, 12, 8]" in out
+    lines = out.splitlines()
+    assert f"{files / 'hamming.txt'}  BSC  n=7 k=4 d=3 t=1" in lines
+    assert any(ln.startswith(f"{files / 'golay.json'}  BSC  n=24 k=12 d=8 t=3") for ln in lines)
     assert "2.093e-05" in out  # Hamming, p = 1e-3: 1 - q^7 - 7pq^6 = 2.0930e-05
-    assert "0:1  1:24  2:276  3:2024  4:1771" in out
+    # Golay coset leaders: C(24, i) for i <= 3, then 2^12 - 2325 = 1771 of weight 4
+    assert "L0=1 L1=24 L2=276 L3=2024 L4=1771" in out
+    assert "weight distribution: A0=1 A8=759 A12=2576 A16=759 A24=1" in out  # M&S ch. 2 §6
 
 
 def test_channel_json_agrees_with_closed_form(capsys, files):

@@ -357,6 +357,11 @@ def test_cli_build_prints_summary_and_matrix(capsys):
     assert "[n, k] = [7, 4]" in out and "d = 3" in out
     rows = [ln for ln in out.splitlines() if set(ln) <= {"0", "1"} and ln]
     assert Code([[int(c) for c in r] for r in rows]) == F.hamming(3)
+    # the whole output is a gf2codes matrix file: the summary lines are comments
+    from gf2codes.formats import parse_text_matrix
+
+    assert all(ln.startswith("#") for ln in out.splitlines() if ln not in rows)
+    assert Code(parse_text_matrix(out)) == F.hamming(3)
 
 
 def test_cli_bch_never_calls_designed_distance_exact(capsys):

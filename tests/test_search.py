@@ -287,7 +287,14 @@ def test_cli_text_json_and_output_file(tmp_path, capsys):
     rec = json.loads(path.read_text())
     assert rec["d"] == 3 and len(rec["generator"]) == 4
     assert main(["search", "--no-catalog", "--k", "4", "--d", "4"]) == 0
-    assert "no [7,4,4] code exists" in capsys.readouterr().out
+    text = capsys.readouterr().out
+    assert "no [7,4,4] code exists" in text
+    # the generator block is a matrix file (a '#' header, then rows) of the code found
+    block = text[text.index("# generator matrix of the [8, 4, 4] code found, 4 x 8"):]
+    from gf2codes.formats import parse_text_matrix
+
+    found = Code(parse_text_matrix(block))
+    assert (found.n, found.k, minimum_distance(found).d) == (8, 4, 4)
 
 
 def test_cli_subprocess():

@@ -5,16 +5,20 @@ Four modes, chosen by which options are given:
 * ``--n N --k K``: every upper bound on ``d``, the best one, and the existence bounds;
 * ``--n N --d D``: the greatest dimension each bound allows;
 * ``--k K --d D``: the least length each bound allows (and which bounds force it);
-* ``--table --n A-B [--k C-D]``: a grid of the best upper bound on ``d``.
+* ``--table [--k A-B] [--d C-D]``: for every (k, d), the least length the upper bounds
+  allow and the length at which an existence bound guarantees a code.
 """
 
 from __future__ import annotations
+
+import sys
 
 from rich.table import Table
 
 from .. import bounds as B
 from ..exceptions import ParameterError
 from ._common import add_json_flag, console, parse_int, parse_range, print_json
+from ._text import length_grid
 
 __all__ = ["register", "run"]
 
@@ -29,7 +33,7 @@ _TITLES = {
     "varshamov": "Varshamov",
 }
 
-_TABLE_LIMIT = 128  # largest length accepted in --table mode (each cell may solve LPs)
+_TABLE_LIMIT = 128  # largest k and d accepted in --table mode (each cell may solve LPs)
 
 
 def register(subparsers) -> None:
@@ -37,13 +41,16 @@ def register(subparsers) -> None:
         "bounds",
         help="upper and existence bounds for binary linear [n, k, d] codes",
         description="Bounds for binary linear codes. Give two of --n, --k, --d, "
-                    "or --table with a range of --n (and optionally --k).",
+                    "or --table with ranges of --k and --d.",
     )
-    p.add_argument("--n", metavar="N", help="length (a range like 1-40 with --table)")
-    p.add_argument("--k", metavar="K", help="dimension (a range like 1-20 with --table)")
-    p.add_argument("--d", metavar="D", help="minimum distance")
+    p.add_argument("--n", metavar="N", help="length")
+    p.add_argument("--k", metavar="K",
+                   help="dimension (data bits); a range like 1-16 with --table (the default)")
+    p.add_argument("--d", metavar="D",
+                   help="minimum distance; a range like 1-10 with --table (the default)")
     p.add_argument("--table", action="store_true",
-                   help="print the best upper bound on d for every (n, k) in the ranges")
+                   help="for every k and d in the ranges: the least length the bounds allow "
+                        "and the length at which a code is guaranteed to exist")
     p.add_argument("--plot", metavar="FILE.png",
                    help="also draw the bounds on d against n for the given k into an image file")
     add_json_flag(p)
@@ -54,10 +61,9 @@ def run(args) -> int:
         return _run_and_plot(args)
     given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
     if args.table:
-        if "d" in given:
-            raise ParameterError("Argument 'd' must not be given with --table.")
-        if "n" not in given:
-            raise ParameterError("Argument 'n' must be given with --table (e.g. --n 1-40).")
+        if "n" in given:
+            raise ParameterError("Argument 'n' must not be given with --table (its rows are "
+                                 "k and its columns d; each cell is a length).")
         return _run_table(args)
     if given == {"n", "k"}:
         return _run_nk(parse_int("n", args.n), parse_int("k", args.k), args.json)
@@ -66,7 +72,7 @@ def run(args) -> int:
     if given == {"k", "d"}:
         return _run_kd(parse_int("k", args.k), parse_int("d", args.d), args.json)
     raise ParameterError(
-        "Arguments must be exactly two of --n, --k, --d (or --table with --n), not "
+        "Arguments must be exactly two of --n, --k, --d (or --table), not "
         + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
     )
 
@@ -191,26 +197,33 @@ def _exist_n(k: int, d: int, name: str) -> int:
 
 
 def _run_table(args) -> int:
-    ns = parse_range("n", args.n)
-    ks = parse_range("k", args.k) if args.k is not None else range(1, ns[-1] + 1)
-    if ns[0] < 1:
-        raise ParameterError(f"Argument 'n' must be at least 1, not {ns[0]}.")
-    if ks[0] < 1:
-        raise ParameterError(f"Argument 'k' must be at least 1, not {ks[0]}.")
-    if ns[-1] > _TABLE_LIMIT:
-        raise ParameterError(f"Argument 'n' must be at most {_TABLE_LIMIT} with --table, "
-                             f"not {ns[-1]}.")
-    grid = {n: {k: B.best_upper(n, k).d for k in ks if k <= n} for n in ns}
-    if args.json:
-        print_json({"mode": "table", "n": [ns[0], ns[-1]], "k": [ks[0], ks[-1]],
-                    "best_d": {str(n): {str(k): v for k, v in row.items()}
-                               for n, row in grid.items()}})
-        return 0
-    t = Table(title="Best upper bound on d, binary linear [n, k] (rows n, columns k)")
-    t.add_column("n \\ k", justify="right")
+    ks = parse_range("k", args.k if args.k is not None else "1-16")
+    ds = parse_range("d", args.d if args.d is not None else "1-10")
+    for name, values in (("k", ks), ("d", ds)):
+        if values[0] < 1:
+            raise ParameterError(f"Argument '{name}' must be at least 1, not {values[0]}.")
+        if values[-1] > _TABLE_LIMIT:
+            raise ParameterError(f"Argument '{name}' must be at most {_TABLE_LIMIT} with "
+                                 f"--table, not {values[-1]}.")
+    cells = []
     for k in ks:
-        t.add_column(str(k), justify="right")
-    for n in ns:
-        t.add_row(str(n), *[str(grid[n][k]) if k <= n else "" for k in ks])
-    console.print(t, width=max(console.width, 8 + 6 * len(ks)))  # never elide cells
+        for d in ds:
+            least, exist = B.least_length(k, d), B.existence_length(k, d)
+            cells.append({"k": k, "d": d, "n_least": least.n, "least_by": least.by,
+                          "n_exists": exist.n, "exists_by": exist.by})
+    if args.json:
+        print_json({"mode": "table", "k": [ks[0], ks[-1]], "d": [ds[0], ds[-1]],
+                    "cells": cells})
+        return 0
+    lines = ["shortest length n the bounds allow: k data bits (rows), distance at least d "
+             "(columns)"]
+    lines += length_grid({(c["k"], c["d"]): (c["n_least"], c["n_exists"]) for c in cells},
+                         ks, ds)
+    lines += ["N     no shorter code exists, and one of length N is guaranteed: settled",
+              "N+g   no code is shorter than N; an existence bound (Gilbert-Varshamov or",
+              "      Varshamov) guarantees one of length N+g; lengths N .. N+g-1 are open",
+              "      here (bounds --k K --d D names the bounds of a cell)"]
+    settled = sum(c["n_least"] == c["n_exists"] for c in cells)
+    lines.append(f"{settled} of {len(cells)} cells settled by the bounds alone")
+    sys.stdout.write("\n".join(lines) + "\n")
     return 0

@@ -14,6 +14,7 @@ from ..code import Code
 from ..exceptions import ParameterError
 from ..families import FAMILIES, Family
 from ._common import add_json_flag, print_json
+from ._text import matrix_block
 
 __all__ = ["register", "run", "describe_distance", "add_output_flags", "emit"]
 
@@ -88,8 +89,11 @@ def emit(code: Code, args: argparse.Namespace, lines: list[str]) -> int:
     if written:
         lines = lines + [f"  wrote {written}"]
     elif code.n * code.k <= _MAX_PRINTED_BITS:
-        lines = lines + [f"generator matrix ({code.k} x {code.n}):"]
-        lines += formats.rows_to_strings(code.G)
+        # The whole output is a matrix file: the summary as comments, then the rows.
+        lines = [f"# {line.strip()}" for line in lines]
+        lines += matrix_block(formats.rows_to_strings(code.G),
+                              f"generator matrix, {code.k} x {code.n} (this output is a "
+                              "gf2codes matrix file)")
     else:
         lines = lines + ["  (generator matrix too large to print; use -o FILE)"]
     _print_lines(lines)

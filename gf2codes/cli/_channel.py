@@ -41,6 +41,7 @@ from ..weights import (
     weight_enumeration_cost,
 )
 from ._common import ProgressBar, add_json_flag, console, err_console, print_json
+from ._text import weight_text
 
 __all__ = ["register", "run", "parse_p", "analyse"]
 
@@ -275,12 +276,12 @@ def _fmt(x: float | None, digits: int = 4) -> str:
 
 def _print(rep: dict[str, Any], args: argparse.Namespace) -> None:
     n, k, d, t = rep["n"], rep["k"], rep["d"], rep["t"]
-    label = f"[{n}, {k}, {d}]" if d is not None else f"[{n}, {k}]"
-    if rep["name"]:
-        label += f" {rep['name']}"
-    title = f"{label} on a binary symmetric channel  ({rep['source']})"
+    params = f"n={n} k={k} " + (f"d={d} t={t}" if d is not None else "d not proved")
+    title = f"{rep['source'] or rep['name'] or 'code'}  BSC  {params}"
+    if rep["name"] and rep["source"]:
+        title += f"  ({rep['name']})"
     t_text = f"t = {t}" if t is not None else "t unknown"
-    console.print(escape(title), style="bold")
+    console.print(escape(title), style="bold", soft_wrap=True)
     table = Table(box=box.SIMPLE_HEAD, pad_edge=False)
     table.add_column("p", justify="right")
     table.add_column("block error\ncomplete\ndecoding", justify="right")
@@ -300,12 +301,11 @@ def _print(rep: dict[str, Any], args: argparse.Namespace) -> None:
         table.add_row(*row)
     console.print(table)
     if rep["coset_leaders"] is not None:
-        console.print("coset leaders by weight: " + "  ".join(
-            f"{i}:{a}" for i, a in enumerate(rep["coset_leaders"]))
-            + f"   covering radius {rep['covering_radius']}")
+        console.print("coset leaders by weight: " + weight_text(rep["coset_leaders"], "L")
+                      + f"   covering radius {rep['covering_radius']}", soft_wrap=True)
     if rep["weight_distribution"] is not None:
-        console.print("weight distribution: " + "  ".join(
-            f"{i}:{a}" for i, a in enumerate(rep["weight_distribution"]) if a))
+        console.print("weight distribution: " + weight_text(rep["weight_distribution"]),
+                      soft_wrap=True)
     if args.simulate and rep["points"]:
         first = rep["points"][0]["simulation"]
         console.print(f"simulation: {first['trials']:,} codewords per p, "

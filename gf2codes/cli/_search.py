@@ -36,6 +36,7 @@ from ._common import (
     parse_int,
     print_json,
 )
+from ._text import matrix_block
 
 try:
     from .. import catalog
@@ -172,7 +173,8 @@ def _print(r) -> None:
     t.add_row("candidates", f"{r.candidates} in {r.seconds:.2f} s")
     console.print(t)
     console.print(r.statement())
-    console.print("generator matrix:")
+    shown = f"[{r.n}, {r.k}, {r.d}]" if r.d is not None else f"[{r.n}, {r.k}], d ≥ {r.d_lower}"
+    block = matrix_block(formats.rows_to_strings(r.code.G),
+                         f"generator matrix of the {shown} code found, {r.k} x {r.n}")
     sys.stdout.flush()
-    for row in formats.rows_to_strings(r.code.G):
-        console.print(row)
+    sys.stdout.write("\n".join(block) + "\n")

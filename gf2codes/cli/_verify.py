@@ -29,6 +29,7 @@ from ._common import (
     executor_from_args,
     print_json,
 )
+from ._text import weight_text
 
 __all__ = ["register", "run", "report", "analyse"]
 
@@ -157,7 +158,7 @@ def _plot(info: dict[str, Any], code: Code, source: str, path: str) -> None:
                                 "code was not computed, so there is nothing to draw.")
     out = save_weight_distribution_plot(
         info["weight_distribution"], path,
-        title=f"Weight distribution of the [{code.n}, {code.k}] code ({source})")
+        title=f"How many codewords has each weight? {source}: n={code.n} k={code.k}")
     err_console.print(f"wrote {escape(str(out))}")
 
 
@@ -322,8 +323,17 @@ def _method_words(method: str) -> str:
     return " + ".join(_METHOD_WORDS.get(part, part) for part in method.split("+"))
 
 
-def _fmt_distribution(dist: list[int]) -> str:
-    return "  ".join(f"{i}:{a}" for i, a in enumerate(dist) if a)
+def _first_line(info: dict[str, Any], code: Code, source: str | None) -> str:
+    """What the user asked first: the file, the verdict on d, the parameters."""
+    n, k = info["n"], info["k"]
+    if info["d_exact"]:
+        verdict, d_text = "PROVED", f"d={info['d']}"
+    else:
+        verdict = "NOT PROVED"
+        if info.get("meets_target") is not None:
+            verdict = "TARGET MET" if info["meets_target"] else "TARGET MISSED"
+        d_text = f" {info['d_lower']} ≤ d ≤ {info['d_upper']}"
+    return f"{source or code.name or 'code'}  {verdict}  n={n} k={k} {d_text}"
 
 
 def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
@@ -333,14 +343,8 @@ def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
             f"note: {info['dropped_rows']} row(s) of the matrix were linearly dependent on the "
             f"others and were dropped; the code has dimension k = {k}."
         )
-    if info["d_exact"]:
-        title = f"[{n}, {k}, {info['d']}] binary linear code — d proved"
-    else:
-        title = f"[{n}, {k}] binary linear code — {info['d_lower']} ≤ d ≤ {info['d_upper']}"
-    if source:
-        title += f"  ({source})"
-    t = Table(title=escape(title), show_header=False, title_justify="left", box=None,
-              pad_edge=False)
+    console.print(escape(_first_line(info, code, source)), style="bold", soft_wrap=True)
+    t = Table(show_header=False, box=None, pad_edge=False)
     t.add_column(style="bold")
     t.add_column(overflow="fold")
     t.add_row("length n", str(n))
@@ -363,7 +367,7 @@ def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
               "   ⌊(d−1)/2⌋")
     t.add_row("detects", f"{'' if exact else 'at least '}{info['detects']} error(s)   d−1")
     dist = info["weight_distribution"]
-    t.add_row("weight distribution", _fmt_distribution(dist) if dist else "not computed")
+    t.add_row("weight distribution", weight_text(dist) if dist else "not computed")
     dd = info["dual_distance"]
     t.add_row("dual distance", "—" if dd is None else str(dd))
     t.add_row("lightest codeword found", f"{info['witness']}   (weight {info['witness_weight']})")
