@@ -46,6 +46,12 @@ References
    and Development* 4 (1960) 532-542.
 .. [5] R. R. Varshamov, "Estimate of the number of signals in error correcting codes",
    *Doklady Akad. Nauk SSSR* 117 (1957) 739-741.
+
+The chapter, section and theorem numbers cited in this module for [1] and [2] are from
+memory and have not been re-checked against the books (none was at hand); each is
+marked "from memory" where it is most likely to be off. The bounds themselves do not
+rest on those numbers: the tests check every bound against brute force on all small
+codes and against codes whose distance the tests compute.
 """
 
 from __future__ import annotations
@@ -244,7 +250,8 @@ def _kmax_plotkin(n: int, d: int) -> int:
     # (a) classical Plotkin on A(n', d), see _plotkin_size;
     # (b) linear, average weight: sum of the weights of the 2^k' codewords is at most
     #     n' 2^(k'-1), so d (2^k' - 1) <= n' 2^(k'-1), i.e. 2^(k'-1) (2d - n') <= d
-    #     ([2] proof of Thm 2.2.1 (Plotkin), [1] ch. 1 §? problem; valid for every n').
+    #     (the averaging step of the proof of the Plotkin bound, [2] §2.2, derived here: a
+    #     coordinate that is not always 0 is 1 in half the codewords; valid for every n').
     # Only the few longest n' are tried (the best is among them in every case we looked
     # at); trying fewer shortenings can only weaken the bound, never make it wrong.
     top = min(n, 2 * d + 1)
@@ -260,7 +267,7 @@ def _kmax_plotkin(n: int, d: int) -> int:
 
 
 def _kmax_elias(n: int, d: int) -> int:
-    # Elias-Bassalygo bound ([2] Thm 2.11.? (Bassalygo-Elias), [1] ch. 17 §4; from memory):
+    # Elias-Bassalygo bound ([2] §2.11, [1] ch. 17 §4; section numbers from memory):
     # for 0 <= w <= n/2 with w^2 - n w + n d / 2 > 0,
     #     A(n, d) <= (n d / 2) / (w^2 - n w + n d / 2) * 2^n / V(n, w).
     # Multiplying out by 2: 2^k (2w^2 - 2nw + nd) V(n, w) <= n d 2^n, all integers, so the

@@ -30,9 +30,7 @@ References
 .. [2] K.-H. Zimmermann, "Integral Hecke modules, integral generalized Reed-Muller
    codes, and linear codes", Technical Report 3-96, Technische Universität
    Hamburg-Harburg, 1996.
-.. [3] M. Grassl, "Searching for linear codes with large minimum distance", in
-   *Discovering Mathematics with Magma*, Springer, 2006, pp. 287-313.
-.. [4] P. J. Lee and E. F. Brickell, "An observation on the security of
+.. [3] P. J. Lee and E. F. Brickell, "An observation on the security of
    McEliece's public-key cryptosystem", EUROCRYPT 1988, LNCS 330, pp. 275-280.
 """
 
