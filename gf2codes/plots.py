@@ -275,8 +275,8 @@ def bounds_figure(k: int, n_values: Sequence[int], *, mark: Sequence[tuple[int, 
 
     Draws every upper bound of :func:`gf2codes.bounds.upper_bounds` (thin steps), the
     best upper bound :func:`gf2codes.bounds.best_upper` (thick), the existence bounds
-    of :func:`gf2codes.bounds.lower_bounds` (dashed), the gap between the best known
-    lower and upper bounds shaded, the codes in ``known`` (for example from
+    of :func:`gf2codes.bounds.lower_bounds` (dashed), the open band between the
+    existence bounds and the best upper bound shaded, the codes in ``known`` (for example from
     :func:`catalog_points`) as dots and the points in ``mark`` as stars.
 
     Parameters
