@@ -11,7 +11,7 @@ the best found. Exit status: 0 when the search ended on its own or at the time l
 130 when it was interrupted with Ctrl-C (the best proved code found so far is still
 printed, and written with ``-o``), 2 for bad input.
 
-With ``gf2codes.catalog`` available, the best catalog entry for the target is a
+With ``gf2codes.catalog`` available, the code on file for the target (``Catalog.pick``) is a
 starting point and the winner is saved there (``--catalog PATH``, ``--no-catalog``).
 """
 
