@@ -12,6 +12,7 @@ Four modes, chosen by which options are given:
 from __future__ import annotations
 
 import sys
+from typing import Any
 
 from rich.table import Table
 
@@ -205,7 +206,7 @@ def _run_table(args) -> int:
         if values[-1] > _TABLE_LIMIT:
             raise ParameterError(f"Argument '{name}' must be at most {_TABLE_LIMIT} with "
                                  f"--table, not {values[-1]}.")
-    cells = []
+    cells: list[dict[str, Any]] = []
     for k in ks:
         for d in ds:
             least, exist = B.least_length(k, d), B.existence_length(k, d)
