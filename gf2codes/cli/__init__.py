@@ -47,7 +47,7 @@ SUMMARIES: dict[str, str] = {
     "search": "search for the shortest code for (k, d), or the best d or k",
     "channel": "error probabilities of a code on a binary symmetric channel",
     "export": "write the systematic encoder and syndrome as C, text, npy, JSON or GraphML",
-    "catalog": "the local catalog of proved codes: add, list, best, table, ...",
+    "catalog": "the local catalog of proved codes: add, list, pick, table, ...",
     "equivalent": "decide whether two codes are equal up to a coordinate permutation",
 }
 
