@@ -112,7 +112,7 @@ from collections.abc import Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field
 from datetime import datetime, timezone
 from pathlib import Path
-from typing import Any
+from typing import Any, Literal
 
 import numpy as np
 
@@ -128,6 +128,9 @@ __all__ = [
     "MAX_GRAPH_WORDS",
     "Catalog",
     "Entry",
+    "Provenance",
+    "ProvenanceKind",
+    "ProofOutcome",
     "Equivalence",
     "CodeFacts",
     "ImportReport",
@@ -145,7 +148,7 @@ __all__ = [
 ]
 
 #: Version of the database schema this gf2codes writes (``PRAGMA user_version``).
-SCHEMA_VERSION = 2
+SCHEMA_VERSION = 3
 #: ``PRAGMA application_id`` of a gf2codes catalog (the bytes ``g2cc``).
 APPLICATION_ID = 0x67326363
 #: ``record`` value of an exported catalog entry.
@@ -157,7 +160,13 @@ MAX_GRAPH_WORDS = 6000
 _MAX_SIDE_DIM = 20
 #: Weight distributions are computed when ``2^min(k, n-k)`` is at most this.
 _MAX_WEIGHT_WORDS = 1 << 30
+#: A trusted import computes the weight distribution (a proof) up to this many codewords
+#: of the smaller side; above it, only a short information-set search checks the claim.
+_CHEAP_WEIGHT_WORDS = 1 << 20
+#: Random information sets tried by the short check of a trusted record.
+_CHEAP_ISD_ITERATIONS = 24
 _BUSY_SECONDS = 60.0
+_MAX_SQL_INT = (1 << 63) - 1
 _INVARIANT_SCHEME = "wl1"
 
 #: ``MIGRATIONS[v]`` takes a catalog from schema version ``v`` to ``v + 1``.
@@ -198,6 +207,13 @@ MIGRATIONS: tuple[tuple[str, ...], ...] = (
         """CREATE INDEX entry_invariant ON entry (invariant)""",
         """CREATE INDEX recipe_entry ON recipe (entry_id)""",
     ),
+    # 2 -> 3: how the distance interval of each entry is known (see Provenance). Entries
+    # stored before this step may come from a trusted import: they are claims until
+    # `Catalog.prove_claims` proves them here.
+    (
+        """ALTER TABLE entry ADD COLUMN provenance TEXT NOT NULL DEFAULT
+           '{"kind":"claimed","source":"stored before gf2codes recorded provenance"}'""",
+    ),
 )
 assert len(MIGRATIONS) == SCHEMA_VERSION
 
@@ -208,6 +224,100 @@ def _now() -> str:
 
 def _dumps(obj: Any) -> str:
     return json.dumps(obj, sort_keys=True, separators=(",", ":"))
+
+
+# ------------------------------------------------------------------ provenance
+#: How the distance interval of an entry is known: ``"proved"`` here (by this
+#: installation, with the route and the time), ``"checked"`` here (a record's claim
+#: passed the cheap consistency checks, which do not prove it), or ``"claimed"`` (stated by
+#: the entry's source and not checked).
+ProvenanceKind = Literal["proved", "checked", "claimed"]
+_KINDS: tuple[str, ...] = ("proved", "checked", "claimed")
+
+
+@dataclass(frozen=True)
+class Provenance:
+    """How the distance interval ``d_lower .. d_upper`` of a catalog entry is known.
+
+    Only ``kind == "proved"`` is a proof made by this installation; the other two are
+    claims, shown as such everywhere and never used to prove anything else (a derived
+    answer from a claimed entry is a claim too).
+
+    Attributes
+    ----------
+    kind : {"proved", "checked", "claimed"}
+    route : str or None
+        ``proved``: how (``"weight distribution"``, ``"bz"``, ``"gray"``...);
+        ``checked``: which checks passed.
+    at : str or None
+        When (ISO 8601 UTC).
+    by : str or None
+        The gf2codes version that proved or checked it.
+    seconds : float or None
+        Time the proof took.
+    source : str or None
+        Who states a claim (a file name, ``"shipped seed"``...).
+
+    >>> Provenance.from_dict({"kind": "claimed", "source": "lie.jsonl"}).describe()
+    'claimed by lie.jsonl, not checked'
+    """
+
+    kind: ProvenanceKind
+    route: str | None = None
+    at: str | None = None
+    by: str | None = None
+    seconds: float | None = None
+    source: str | None = None
+
+    @property
+    def proved(self) -> bool:
+        """True when the interval was proved by this installation."""
+        return self.kind == "proved"
+
+    @classmethod
+    def proved_here(cls, route: str, seconds: float | None = None) -> Provenance:
+        """A proof made now, by this gf2codes."""
+        return cls("proved", route=route, at=_now(), by=__version__,
+                   seconds=None if seconds is None else round(float(seconds), 3))
+
+    def to_dict(self) -> dict[str, Any]:
+        """The JSON form (keys with no value left out)."""
+        return {k: v for k, v in (("kind", self.kind), ("route", self.route), ("at", self.at),
+                                  ("by", self.by), ("seconds", self.seconds),
+                                  ("source", self.source)) if v is not None}
+
+    @classmethod
+    def from_dict(cls, obj: Mapping[str, Any]) -> Provenance:
+        """Read :meth:`to_dict`; anything unreadable is a claim, never a proof."""
+        kind = obj.get("kind")
+        if kind not in _KINDS:
+            return cls("claimed", source=str(obj.get("source") or "unknown"))
+        seconds = obj.get("seconds")
+        return cls(kind, route=obj.get("route"), at=obj.get("at"), by=obj.get("by"),  # type: ignore[arg-type]
+                   seconds=seconds if isinstance(seconds, (int, float)) else None,
+                   source=obj.get("source"))
+
+    def describe(self) -> str:
+        """One phrase: ``proved here (bz, 0.12 s, 2026-...)`` or ``claimed by FILE...``."""
+        if self.kind == "proved":
+            parts = [p for p in (self.route, None if self.seconds is None else
+                                 f"{self.seconds:g} s", self.at) if p]
+            return "proved here" + (f" ({', '.join(parts)})" if parts else "")
+        who = f"claimed by {self.source}" if self.source else "claimed"
+        if self.kind == "checked":
+            return f"{who}; checked here ({self.route}), which is not a proof"
+        return f"{who}, not checked"
+
+
+_CLAIMED_BEFORE = Provenance("claimed", source="stored before gf2codes recorded provenance")
+
+
+def _read_provenance(text: str | None) -> Provenance:
+    try:
+        obj = json.loads(text) if text else None
+    except json.JSONDecodeError:
+        obj = None
+    return Provenance.from_dict(obj) if isinstance(obj, dict) else _CLAIMED_BEFORE
 
 
 # ------------------------------------------------------------------ locations
@@ -639,12 +749,17 @@ class Entry:
         The entry's id; None for a derived answer (see :attr:`base_id`).
     n, k : int
     d : int
-        A proved lower bound on the minimum distance; the minimum distance itself
-        when :attr:`proved`.
+        A lower bound on the minimum distance (proved here when :attr:`provenance` is
+        ``proved``, else only claimed); the minimum distance itself when :attr:`proved`.
     d_lower, d_upper : int or None
-        The proved interval (``d_upper`` is None for a derived answer).
+        The interval (``d_upper`` is None for a derived answer).
+    closed : bool
+        True when the interval is one value.
     proved : bool
-        True when ``d`` is the exact minimum distance.
+        True when ``d`` is the exact minimum distance **proved by this installation**
+        (closed interval and ``provenance.kind == "proved"``).
+    provenance : Provenance
+        How the interval is known; a derived answer has its base entry's kind.
     recipes : list of dict
         Each ``{"source", "recipe", "seed", "permutation", "added", "gf2codes"}``.
     derived_from : str or None
@@ -664,12 +779,21 @@ class Entry:
                  steps: list[dict[str, Any]] | None = None, weights: list[int] | None = None,
                  invariant: str | None = None, proof: dict[str, Any] | None = None,
                  added_at: str | None = None, added_by: str | None = None,
-                 origin: str | None = None) -> None:
+                 origin: str | None = None, provenance: Provenance | None = None) -> None:
         self.id = id
         self.n, self.k = n, k
         self.d_lower, self.d_upper = d_lower, d_upper
         self.d = d_lower
-        self.proved = d_upper is not None and d_lower == d_upper
+        if base is not None:
+            kind = base.provenance.kind
+            provenance = (Provenance("proved", route=f"propagation rules from entry {base.id}")
+                          if kind == "proved" else
+                          Provenance(kind, route=base.provenance.route,
+                                     source=f"entry {base.id}, "
+                                            f"{base.provenance.describe()}"))
+        self.provenance: Provenance = provenance or _CLAIMED_BEFORE
+        self.closed = d_upper is not None and d_lower == d_upper
+        self.proved = self.closed and self.provenance.proved
         self.recipes = recipes
         self.weights, self.invariant, self.proof = weights, invariant, proof
         self.added_at, self.added_by, self.origin = added_at, added_by, origin
@@ -712,6 +836,7 @@ class Entry:
         return {
             "id": self.id, "n": self.n, "k": self.k, "d": self.d if self.proved else None,
             "d_lower": self.d_lower, "d_upper": self.d_upper, "proved": self.proved,
+            "status": self.provenance.kind, "provenance": self.provenance.to_dict(),
             "derived_from": self.derived_from, "base_id": self.base_id, "steps": self.steps,
             "generator": rows_to_strings(self.code.rref_generator if self._base is None
                                          else self.code.G),
@@ -721,7 +846,9 @@ class Entry:
         }
 
     def __repr__(self) -> str:
-        dd = f"{self.d}" if self.proved else f">={self.d}"
+        dd = f"{self.d}" if self.closed else f">={self.d}"
+        if not self.provenance.proved:
+            dd += f" {self.provenance.kind}"
         tag = f" derived from {self.base_id}" if self.derived_from else ""
         return f"<Entry {self.id} [{self.n}, {self.k}, {dd}]{tag}>"
 
@@ -749,11 +876,33 @@ class ImportReport:
     merged: int = 0
     unchanged: int = 0
     errors: list[tuple[int, str]] = field(default_factory=list)
+    #: Imported records by provenance: ``{"proved": 3, "checked": 1, "claimed": 0}``.
+    status: dict[str, int] = field(default_factory=dict)
+
+
+@dataclass(frozen=True)
+class ProofOutcome:
+    """What :meth:`Catalog.prove_claims` did to one entry.
+
+    ``verdict`` is ``"proved"`` (the claim holds and d is proved here), ``"the claim was
+    false"`` (the proved interval replaced it), ``"not settled"`` (the time ran out; the
+    entry is still a claim) or ``"already proved"``; ``detail`` is the proof's summary.
+    """
+
+    id: int | None
+    claimed_lower: int
+    claimed_upper: int | None
+    claimed: Provenance
+    d_lower: int
+    d_upper: int | None
+    verdict: str
+    detail: str = ""
 
 
 # ------------------------------------------------------------------ records
 def entry_record(entry: Entry, *, stamps: bool = True) -> dict[str, Any]:
-    """The JSON-lines record of a stored entry (``stamps``: include dates and versions)."""
+    """The JSON-lines record of a stored entry (``stamps``: include dates, versions and the
+    provenance). ``d`` is null unless d was proved here."""
     rec: dict[str, Any] = {
         "record": ENTRY_RECORD_KIND, "version": ENTRY_RECORD_VERSION,
         "n": entry.n, "k": entry.k, "d": entry.d if entry.proved else None,
@@ -774,6 +923,8 @@ def entry_record(entry: Entry, *, stamps: bool = True) -> dict[str, Any]:
     if stamps:
         rec["added"], rec["gf2codes"], rec["origin"] = (entry.added_at, entry.added_by,
                                                         entry.origin)
+        # how this installation knew it; whoever imports the record treats it as a claim
+        rec["provenance"] = entry.provenance.to_dict()
     return rec
 
 
@@ -898,23 +1049,96 @@ def parse_entry_record(obj: Any, source: str = "<record>") -> _Parsed:
                    obj.get("added"), obj.get("gf2codes"), obj.get("origin"))
 
 
+def _trusted_facts(rec: _Parsed, where: str, source: str) -> tuple[CodeFacts, Provenance]:
+    """The cheap checks of a trusted record; its facts and how its interval is known.
+
+    Raises :class:`ParseError` (naming ``where``) when the record contradicts itself or a
+    check. The weight distribution is computed when cheap, which proves d here; otherwise
+    a short information-set search looks for a codeword lighter than the claim, and the
+    record is stored as a checked claim. Stated weights that were not recomputed are not
+    stored (they are claims too).
+    """
+    from .weights import macwilliams_transform, weight_distribution
+
+    code = rec.code
+    n, k = code.n, code.k
+    checks = ["rank, n and k"]
+    if rec.weights is not None:
+        stated_d = next((i for i, a in enumerate(rec.weights) if i and a), None)
+        if stated_d is None or not rec.d_lower <= stated_d <= rec.d_upper:
+            raise ParseError(f"{where}: the record contradicts itself: its weight distribution "
+                             f"gives d = {stated_d}, but it states {rec.d_lower} <= d <= "
+                             f"{rec.d_upper}.")
+        try:
+            macwilliams_transform(rec.weights, n)
+        except ParameterError as exc:
+            raise ParseError(f"{where}: the stated weight distribution is impossible: "
+                             f"{str(exc).removeprefix('Argument ')}") from None
+        checks.append("the stated weights against d and the MacWilliams identities")
+    trusted = rec.invariant is not None and (rec.invariant.startswith(_INVARIANT_SCHEME + ":")
+                                             or rec.invariant.startswith("coarse:"))
+    weights: list[int] | None = None
+    if k == n:
+        weights = [math.comb(n, i) for i in range(n + 1)]
+    elif (1 << min(k, n - k)) <= _CHEAP_WEIGHT_WORDS:
+        weights = [int(a) for a in weight_distribution(code, max_codewords=None)]
+    if trusted:
+        side = "coarse" if rec.invariant.startswith("coarse:") else "trusted"  # type: ignore[union-attr]
+        facts = CodeFacts(_subspace_digest(code), weights, rec.invariant, side)  # type: ignore[arg-type]
+    else:
+        facts = code_facts(code)
+        weights = facts.weights if weights is None else weights
+    if weights is not None:
+        if rec.weights is not None and rec.weights != weights:
+            raise ParseError(f"{where}: the stated weight distribution is not the code's ("
+                             + _first_difference(rec.weights, weights) + ").")
+        true_d = next(i for i, a in enumerate(weights) if i and a)
+        if not rec.d_lower <= true_d <= rec.d_upper:
+            raise ParseError(f"{where}: the record states {rec.d_lower} <= d <= "
+                             f"{rec.d_upper}, but the code's weight distribution (computed "
+                             f"here) gives d = {true_d}.")
+        rec.d_lower = rec.d_upper = true_d
+        rec.proved = True
+        return facts, Provenance.proved_here("weight distribution")
+    from .distance import distance_upper_bound
+
+    isd = distance_upper_bound(code, iterations=_CHEAP_ISD_ITERATIONS, seed=0)
+    if isd.upper < rec.d_lower:
+        raise ParseError(f"{where}: the record states d >= {rec.d_lower}, but the code has a "
+                         f"codeword of weight {isd.upper} (found by an information-set "
+                         "search here).")
+    checks.append(f"no codeword lighter than {rec.d_lower} in {_CHEAP_ISD_ITERATIONS} random "
+                  "information sets")
+    return facts, Provenance("checked", route="; ".join(checks), at=_now(), by=__version__,
+                             source=source)
+
+
 # ------------------------------------------------------------------ the store
-def open_catalog(path: str | os.PathLike[str] | None = None, *, shipped: bool = True
-                 ) -> Catalog:
+def open_catalog(path: str | os.PathLike[str] | None = None, *, shipped: bool = True,
+                 create: bool = True) -> Catalog:
     """Open (creating if needed) the catalog at ``path`` or at :func:`default_catalog_path`.
+
+    A catalog file this process may not write is opened read-only: reading works, and
+    every write raises :class:`CatalogError` saying why (:attr:`Catalog.readonly`).
+    ``path=":memory:"`` opens a private catalog in memory (nothing is written to disk).
 
     Parameters
     ----------
     path : path-like, optional
     shipped : bool
         When the file is created, import the shipped seed records into it.
+    create : bool
+        With False, a missing catalog raises :class:`CatalogError` and nothing (no file,
+        no folder) is created.
 
     Raises
     ------
     CatalogError
-        If the file is not a catalog, is of a newer schema, or cannot be opened.
+        If the file is not a catalog, is of a newer schema, cannot be opened, or (with
+        ``create=False``) does not exist.
     """
-    return Catalog(default_catalog_path() if path is None else Path(path), shipped=shipped)
+    return Catalog(default_catalog_path() if path is None else Path(path), shipped=shipped,
+                   create=create)
 
 
 class Catalog:
@@ -924,8 +1148,14 @@ class Catalog:
     catalog as it was before the call or after it, never in between.
     """
 
-    def __init__(self, path: str | os.PathLike[str], *, shipped: bool = True) -> None:
+    def __init__(self, path: str | os.PathLike[str], *, shipped: bool = True,
+                 create: bool = True) -> None:
         self.path = Path(path)
+        #: True when this process may not write the catalog file.
+        self.readonly = False
+        self._memory = str(path) == ":memory:"
+        if not create and not self._memory and not self.path.exists():
+            raise CatalogError(f"{self.path}: no catalog there (nothing was created).")
         self._con = self._connect()
         self._arrays: tuple[np.ndarray, ...] | None = None
         self._arrays_version: int | None = None
@@ -934,6 +1164,8 @@ class Catalog:
     # ---------------------------------------------------------------- opening
     def _connect(self) -> sqlite3.Connection:
         p = self.path
+        if self._memory:
+            return sqlite3.connect(":memory:", isolation_level=None)
         if p.is_dir():
             raise CatalogError(f"{p}: is a folder, not a catalog file.")
         if p.exists() and p.stat().st_size:
@@ -941,6 +1173,8 @@ class Catalog:
                 head = fh.read(16)
             if head != b"SQLite format 3\x00":
                 raise CatalogError(f"{p}: not a gf2codes catalog (not an SQLite database).")
+            if not (os.access(p, os.W_OK) and os.access(p.parent, os.W_OK | os.X_OK)):
+                return self._connect_readonly()
         else:
             try:
                 p.parent.mkdir(parents=True, exist_ok=True)
@@ -952,9 +1186,32 @@ class Catalog:
             con.execute("PRAGMA journal_mode = WAL")
             con.execute("PRAGMA synchronous = FULL")
             con.execute("PRAGMA foreign_keys = ON")
+        except sqlite3.OperationalError as exc:
+            if "readonly" in str(exc) and p.exists():
+                return self._connect_readonly()
+            raise CatalogError(f"{p}: cannot open the catalog ({exc}).") from None
         except sqlite3.DatabaseError as exc:
             raise CatalogError(f"{p}: not a usable gf2codes catalog ({exc}).") from None
         return con
+
+    def _connect_readonly(self) -> sqlite3.Connection:
+        """Open a catalog this process may not write: read-only and immutable (no -shm or
+        -wal file is needed, so a read-only folder works too)."""
+        from urllib.parse import quote
+
+        self.readonly = True
+        uri = f"file:{quote(str(self.path.resolve()))}?mode=ro&immutable=1"
+        try:
+            return sqlite3.connect(uri, uri=True, isolation_level=None)
+        except sqlite3.DatabaseError as exc:
+            raise CatalogError(f"{self.path}: cannot open the catalog ({exc}).") from None
+
+    def require_writable(self, what: str = "change it") -> None:
+        """Raise :class:`CatalogError` when the catalog is read-only for this process."""
+        if self.readonly:
+            raise CatalogError(f"{self.path}: the catalog is read-only for this user (no write "
+                               f"permission on the file or its folder), so gf2codes cannot "
+                               f"{what}. Reading it works.")
 
     def _init_schema(self, shipped: bool) -> None:
         con = self._con
@@ -966,6 +1223,11 @@ class Catalog:
             raise CatalogError(f"{self.path}: not a usable gf2codes catalog ({exc}).") from None
         if app == APPLICATION_ID and version == SCHEMA_VERSION:
             return
+        if self.readonly and app == APPLICATION_ID and version < SCHEMA_VERSION:
+            self._con.close()
+            raise CatalogError(f"{self.path}: catalog schema version {version} must be upgraded "
+                               f"to {SCHEMA_VERSION} before use, but the file is read-only for "
+                               "this user; open it once with write permission.")
         with self._write() as cur:
             app = cur.execute("PRAGMA application_id").fetchone()[0]
             version = cur.execute("PRAGMA user_version").fetchone()[0]
@@ -995,6 +1257,7 @@ class Catalog:
 
     @contextlib.contextmanager
     def _write(self) -> Iterator[sqlite3.Cursor]:
+        self.require_writable("write to it")
         cur = self._con.cursor()
         try:
             cur.execute("BEGIN IMMEDIATE")
@@ -1002,11 +1265,21 @@ class Catalog:
             raise CatalogError(f"{self.path}: cannot write ({exc}).") from None
         try:
             yield cur
+        except sqlite3.OperationalError as exc:
+            cur.execute("ROLLBACK")
+            if "readonly" in str(exc):
+                self.readonly = True
+                self.require_writable("write to it")
+            raise CatalogError(f"{self.path}: cannot write ({exc}).") from None
         except BaseException:
             cur.execute("ROLLBACK")
             raise
         else:
-            cur.execute("COMMIT")
+            try:
+                cur.execute("COMMIT")
+            except sqlite3.OperationalError as exc:
+                cur.execute("ROLLBACK")
+                raise CatalogError(f"{self.path}: cannot write ({exc}).") from None
         finally:
             self._arrays = None
 
@@ -1024,17 +1297,17 @@ class Catalog:
 
     # ---------------------------------------------------------------- reading
     def _row_entry(self, row: sqlite3.Row | tuple) -> Entry:
-        (eid, n, k, lo, hi, gen, weights, inv, proof, added, by, origin) = row
+        (eid, n, k, lo, hi, gen, weights, inv, proof, added, by, origin, prov) = row
         words = linalg.words_for(n)
         generator = np.frombuffer(gen, dtype="<u8").astype(np.uint64).reshape(-1, words)
         return Entry(id=eid, n=n, k=k, d_lower=lo, d_upper=hi, recipes=self._recipes(eid),
                      generator=generator, weights=None if weights is None else
                      json.loads(weights), invariant=inv,
                      proof=None if proof is None else json.loads(proof), added_at=added,
-                     added_by=by, origin=origin)
+                     added_by=by, origin=origin, provenance=_read_provenance(prov))
 
     _COLUMNS = ("id, n, k, d_lower, d_upper, generator, weights, invariant, proof, added_at, "
-                "added_by, origin")
+                "added_by, origin, provenance")
 
     def _recipes(self, eid: int) -> list[dict[str, Any]]:
         out = []
@@ -1055,6 +1328,8 @@ class Catalog:
             If there is none.
         """
         entry_id = check_int("id", entry_id, minimum=1)
+        if entry_id > _MAX_SQL_INT:
+            raise CatalogError(f"{self.path}: no entry with id {entry_id}.")
         row = self._con.execute(f"SELECT {self._COLUMNS} FROM entry WHERE id = ?",
                                 (entry_id,)).fetchone()
         if row is None:
@@ -1079,7 +1354,8 @@ class Catalog:
             else:
                 lo = hi = check_int(col, val)
             where.append(f"{col} BETWEEN ? AND ?")
-            params += [lo, hi]
+            params += [max(min(lo, _MAX_SQL_INT), -_MAX_SQL_INT),
+                       max(min(hi, _MAX_SQL_INT), -_MAX_SQL_INT)]
         if origin is not None:
             where.append("origin = ?")
             params.append(origin)
@@ -1094,14 +1370,16 @@ class Catalog:
         total = self._con.execute("SELECT count(*), max(id) FROM entry").fetchone()
         key = (version, total)
         if self._arrays is None or self._arrays_version != key:
-            rows = self._con.execute("SELECT id, n, k, d_lower, d_upper FROM entry").fetchall()
-            a = np.array(rows, dtype=np.int64).reshape(-1, 5)
-            self._arrays = (a[:, 0], a[:, 1], a[:, 2], a[:, 3], a[:, 4])
+            rows = self._con.execute(
+                "SELECT id, n, k, d_lower, d_upper, "
+                "json_extract(provenance, '$.kind') = 'proved' FROM entry").fetchall()
+            a = np.array(rows, dtype=np.int64).reshape(-1, 6)
+            self._arrays = (a[:, 0], a[:, 1], a[:, 2], a[:, 3], a[:, 4], a[:, 5].astype(bool))
             self._arrays_version = key
         return self._arrays
 
     # ---------------------------------------------------------------- queries
-    def _choose(self, ids, N0, K0, L0, U0, dvals, n: int, k: int) -> Entry | None:
+    def _choose(self, ids, N0, K0, L0, U0, P0, dvals, n: int, k: int) -> Entry | None:
         mask = dvals > 0
         if not mask.any():
             return None
@@ -1110,7 +1388,8 @@ class Catalog:
         stored = (N0[cand] == n) & (K0[cand] == k)
         cost = np.abs(K0[cand] - k) + np.abs(N0[cand] - n)
         exact = L0[cand] == U0[cand]
-        order = np.lexsort((ids[cand], ~exact, cost, ~stored))
+        # a proof made here wins over a claim of the same d
+        order = np.lexsort((ids[cand], ~exact, cost, ~stored, ~P0[cand]))
         i = int(cand[order[0]])
         base = self.get(int(ids[i]))
         if stored[order[0]]:
@@ -1120,7 +1399,7 @@ class Catalog:
                      recipes=[], base=base, steps=steps)
 
     def pick(self, *, n: int | None = None, k: int | None = None,
-             d: int | None = None) -> Entry | None:
+             d: int | None = None, claims: bool = True) -> Entry | None:
         """The code on file that answers two of ``n``, ``k``, ``d`` (stored or derived).
 
         * ``k`` and ``d``: the shortest code of dimension ``k`` with distance at least
@@ -1128,14 +1407,19 @@ class Catalog:
         * ``n`` and ``k``: the greatest ``d``;
         * ``n`` and ``d``: the greatest ``k`` (then the greatest ``d``).
 
-        A stored entry wins over a derived one of the same parameters. Returns None when
-        the catalog has nothing that qualifies.
+        A stored entry wins over a derived one of the same parameters, and an entry proved
+        here over a claim. With ``claims=False`` only entries proved here count. The
+        answer's :attr:`Entry.provenance` says whether its d is proved or only claimed (a
+        derived answer inherits its base entry's). Returns None when the catalog has
+        nothing that qualifies.
         """
         given = {key for key, v in (("n", n), ("k", k), ("d", d)) if v is not None}
         if len(given) != 2:
             raise ParameterError("Give exactly two of 'n', 'k' and 'd', not "
                                  f"{', '.join(sorted(given)) or 'none'}.")
-        ids, N0, K0, L0, U0 = self._load_arrays()
+        ids, N0, K0, L0, U0, P0 = self._load_arrays()
+        if not claims:
+            ids, N0, K0, L0, U0, P0 = (a[P0] for a in (ids, N0, K0, L0, U0, P0))
         if ids.size == 0:
             return None
         if n is None:
@@ -1155,7 +1439,7 @@ class Catalog:
             k = int(dims.max())
         n = check_int("n", n, minimum=1)
         k = check_int("k", k, minimum=1, maximum=n)
-        return self._choose(ids, N0, K0, L0, U0, _reach_d(N0, K0, L0, n, k), n, k)
+        return self._choose(ids, N0, K0, L0, U0, P0, _reach_d(N0, K0, L0, n, k), n, k)
 
     def length_table(self, dimensions: Iterable[int], distances: Iterable[int]
                      ) -> list[dict[str, Any]]:
@@ -1164,18 +1448,21 @@ class Catalog:
 
         Each row, in order of ``k`` then ``d``::
 
-            {"k", "d", "n", "entry", "stored", "d_proved", "n_least", "least_by", "gap"}
+            {"k", "d", "n", "entry", "stored", "d_proved", "n_least", "least_by", "gap",
+             "claimed_n"}
 
         ``n`` is the least length of a stored or derived ``[n, k, >= d]`` code (None when
         the catalog has none), ``entry`` the stored entry it is (or is derived from),
         ``stored`` whether it is that entry itself, ``d_proved`` whether that entry's
         distance is proved exactly; ``n_least`` and ``least_by`` are
         :func:`gf2codes.bounds.least_length`; ``gap = n - n_least`` (0: the length on file
-        is proved shortest; None when nothing is on file).
+        is proved shortest; None when nothing is on file). Only entries proved here count;
+        ``claimed_n`` is the shorter length that a claimed (unproved) entry states, or None.
         """
         from .bounds import least_length
 
-        ids, N0, K0, L0, U0 = self._load_arrays()
+        ids_all, N_all, K_all, L_all, _, P_all = self._load_arrays()
+        ids, N0, K0, L0, U0, _ = (a[P_all] for a in self._load_arrays())
         big = np.iinfo(np.int64).max
         rows = []
         for k in dimensions:
@@ -1185,8 +1472,14 @@ class Catalog:
                 least = least_length(k, d)
                 row: dict[str, Any] = {"k": k, "d": d, "n": None, "entry": None,
                                        "stored": False, "d_proved": False,
-                                       "n_least": least.n, "least_by": least.by, "gap": None}
+                                       "n_least": least.n, "least_by": least.by, "gap": None,
+                                       "claimed_n": None}
                 lengths = _reach_n(N0, K0, L0, k, d) if ids.size else np.zeros(0, np.int64)
+                claimed = (int(_reach_n(N_all, K_all, L_all, k, d).min()) if ids_all.size
+                           else big)
+                proved_n = int(lengths.min()) if lengths.size else big
+                if claimed < proved_n:
+                    row["claimed_n"] = claimed
                 if lengths.size and int(lengths.min()) != big:
                     n = int(lengths.min())
                     cand = np.flatnonzero(lengths == n)
@@ -1203,19 +1496,27 @@ class Catalog:
         bound. (The command line shows :meth:`length_table` instead.)
 
         Each row: ``{"n", "k", "d", "exact", "stored", "entry", "bound", "bound_by",
-        "meets_bound"}``; ``entry`` is the stored id or the base id of a derived value.
+        "meets_bound", "claimed_d"}``; ``entry`` is the stored id or the base id of a
+        derived value. ``d`` counts only entries proved here; ``claimed_d`` is the greater
+        d that a claimed (unproved) entry states, or None.
         """
         from .bounds import best_upper
 
-        ids, N0, K0, L0, U0 = self._load_arrays()
+        ids_all, N_all, K_all, L_all, _, P_all = self._load_arrays()
+        ids, N0, K0, L0, U0, _ = (a[P_all] for a in self._load_arrays())
         rows = []
         for n in lengths:
             n = check_int("n", n, minimum=1)
             for k in range(1, n + 1):
                 dv = _reach_d(N0, K0, L0, n, k) if ids.size else np.zeros(0, np.int64)
+                dc = (_reach_d(N_all, K_all, L_all, n, k) if ids_all.size
+                      else np.zeros(0, np.int64))
                 ub = best_upper(n, k)
+                claimed = int(dc.max()) if dc.size else 0
                 row = {"n": n, "k": k, "d": 0, "exact": False, "stored": False,
-                       "entry": None, "bound": ub.d, "bound_by": ub.by, "meets_bound": False}
+                       "entry": None, "bound": ub.d, "bound_by": ub.by, "meets_bound": False,
+                       "claimed_d": claimed if claimed > (int(dv.max()) if dv.size else 0)
+                       else None}
                 if dv.size and dv.max() > 0:
                     best = int(dv.max())
                     cand = np.flatnonzero(dv == best)
@@ -1231,7 +1532,7 @@ class Catalog:
     def add(self, code: Code, *, d: int, proved: bool = True,
             recipe: Sequence[Mapping[str, Any]] | None = None, source: str = "search",
             seed: int | None = None, d_upper: int | None = None,
-            proof: Mapping[str, Any] | None = None) -> int:
+            proof: Mapping[str, Any] | None = None, claimed_by: str | None = None) -> int:
         """Store ``code`` (or merge it into an equivalent entry) and return the entry id.
 
         Parameters
@@ -1252,6 +1553,11 @@ class Catalog:
             upper bound of :mod:`gf2codes.bounds`).
         proof : dict, optional
             How d was proved (method, seconds...), kept with the entry.
+        claimed_by : str, optional
+            Store ``d`` (and ``d_upper``) as a claim of this source instead of a proof:
+            the entry reads "claimed" until :meth:`prove_claims` proves it. Without it the
+            caller asserts that it proved the interval in this installation (a computed
+            weight distribution proves d either way).
 
         Raises
         ------
@@ -1261,24 +1567,27 @@ class Catalog:
             If it contradicts what the catalog proved about an equivalent code.
         """
         return self._add(code, d=d, proved=proved, recipe=recipe, source=source, seed=seed,
-                         d_upper=d_upper, proof=proof)[0]
+                         d_upper=d_upper, proof=proof, claimed_by=claimed_by)[0]
 
     def _add(self, code: Code, *, d: int, proved: bool, recipe, source: str, seed, d_upper,
-             proof) -> tuple[int, str]:
+             proof, claimed_by: str | None = None) -> tuple[int, str]:
         """:meth:`add`, also returning ``"added"``, ``"merged"`` or ``"unchanged"``."""
         if not isinstance(code, Code):
             raise ParameterError(f"Argument 'code' must be a Code, not {type(code).__name__}.")
         d = check_int("d", d, minimum=1, maximum=code.n)
         facts = code_facts(code)
-        lo, hi, proof_d = self._interval(code, facts, d, proved, d_upper, proof)
+        lo, hi, proof_d, prov = self._interval(code, facts, d, proved, d_upper, proof,
+                                               claimed_by)
         steps = list(recipe) if recipe is not None else (list(code.recipe) or None)
         item = {"source": source, "recipe": steps, "seed": seed}
         with self._write() as cur:
-            return self._store(cur, code, facts, lo, hi, proof_d, [item], None, None, "user")
+            return self._store(cur, code, facts, lo, hi, proof_d, [item], None, None, "user",
+                               prov)
 
     @staticmethod
     def _interval(code: Code, facts: CodeFacts, d: int, proved: bool, d_upper: int | None,
-                  proof: Mapping[str, Any] | None) -> tuple[int, int, dict | None]:
+                  proof: Mapping[str, Any] | None, claimed_by: str | None = None
+                  ) -> tuple[int, int, dict | None, Provenance]:
         from .bounds import best_upper
 
         true_d = facts.d
@@ -1290,12 +1599,22 @@ class Catalog:
                 )
             method = dict(proof) if proof else {}
             method.setdefault("method", "weight distribution")
-            return true_d, true_d, method
+            return true_d, true_d, method, Provenance.proved_here("weight distribution")
+        seconds = proof.get("seconds") if proof else None
+        if claimed_by is not None:
+            hi = d if proved else (d_upper if d_upper is not None
+                                   else best_upper(code.n, code.k).d)
+            return (d, check_int("d_upper", hi, minimum=d), dict(proof) if proof else None,
+                    Provenance("claimed", source=claimed_by))
+        route = str(proof.get("method")) if proof and proof.get("method") else \
+            "proved by the caller"
+        prov = Provenance.proved_here(route, seconds if isinstance(seconds, (int, float))
+                                      else None)
         if proved:
-            return d, d, dict(proof) if proof else {"method": "stated by the caller"}
+            return d, d, dict(proof) if proof else {"method": route}, prov
         hi = d_upper if d_upper is not None else best_upper(code.n, code.k).d
         hi = check_int("d_upper", hi, minimum=d)
-        return d, hi, dict(proof) if proof else None
+        return d, hi, dict(proof) if proof else None, prov
 
     def _find(self, cur: sqlite3.Cursor, code: Code, facts: CodeFacts
               ) -> tuple[int | None, list[int] | None]:
@@ -1318,8 +1637,13 @@ class Catalog:
 
     def _store(self, cur: sqlite3.Cursor, code: Code, facts: CodeFacts, lo: int, hi: int,
                proof: dict | None, recipes: list[dict[str, Any]], added: str | None,
-               added_by: str | None, origin: str) -> tuple[int, str]:
-        """Insert or merge inside the open transaction; return (id, "added"/"merged"/...)."""
+               added_by: str | None, origin: str, prov: Provenance) -> tuple[int, str]:
+        """Insert or merge inside the open transaction; return (id, "added"/"merged"/...).
+
+        Merging follows the trust boundary: a proof made here replaces a claim (and a
+        claim that contradicts it was false); a claim never changes a proved interval
+        (one that contradicts it is refused); two proofs, or two claims, intersect.
+        """
         eid, perm = self._find(cur, code, facts)
         now = _now()
         status = "unchanged"
@@ -1327,30 +1651,53 @@ class Catalog:
             rows = linalg.rref(code.packed_generator, n=code.n).sorted().rows
             cur.execute(
                 "INSERT INTO entry (n, k, d_lower, d_upper, generator, subspace, weights, "
-                "invariant, proof, added_at, added_by, origin) "
-                "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                "invariant, proof, added_at, added_by, origin, provenance) "
+                "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
                 (code.n, code.k, lo, hi,
                  np.ascontiguousarray(rows, dtype="<u8").tobytes(), facts.subspace,
                  None if facts.weights is None else _dumps(facts.weights), facts.invariant,
                  None if proof is None else _dumps(proof), added or now,
-                 added_by or __version__, origin))
+                 added_by or __version__, origin, _dumps(prov.to_dict())))
             eid = cur.lastrowid
             status = "added"
         else:
-            old_lo, old_hi = cur.execute("SELECT d_lower, d_upper FROM entry WHERE id = ?",
-                                         (eid,)).fetchone()
-            new_lo, new_hi = max(lo, old_lo), min(hi, old_hi)
-            if new_lo > new_hi:
-                raise CatalogError(
-                    f"{self.path}: entry {eid} has {old_lo} <= d <= {old_hi}, but the code "
-                    f"being added (equivalent to it) was given {lo} <= d <= {hi}."
-                )
-            if (new_lo, new_hi) != (old_lo, old_hi):
-                cur.execute("UPDATE entry SET d_lower = ?, d_upper = ? WHERE id = ?",
-                            (new_lo, new_hi, eid))
-                if new_lo == new_hi and proof is not None:
+            old_lo, old_hi, old_text, old_weights = cur.execute(
+                "SELECT d_lower, d_upper, provenance, weights FROM entry WHERE id = ?",
+                (eid,)).fetchone()
+            old = _read_provenance(old_text)
+            if prov.proved and not old.proved:
+                new_lo, new_hi, new_prov = lo, hi, prov
+            elif old.proved and not prov.proved:
+                if max(lo, old_lo) > min(hi, old_hi):
+                    raise CatalogError(
+                        f"{self.path}: entry {eid} has {old_lo} <= d <= {old_hi} proved here, "
+                        f"but the equivalent code being added is claimed to have {lo} <= d "
+                        f"<= {hi}: the claim is false.")
+                new_lo, new_hi, new_prov = old_lo, old_hi, old
+            else:
+                new_lo, new_hi = max(lo, old_lo), min(hi, old_hi)
+                if new_lo > new_hi:
+                    raise CatalogError(
+                        f"{self.path}: entry {eid} has {old_lo} <= d <= {old_hi}, but the code "
+                        f"being added (equivalent to it) was given {lo} <= d <= {hi}."
+                    )
+                new_prov = old
+                if (new_lo, new_hi) != (old_lo, old_hi) and not prov.proved:
+                    kind = "claimed" if "claimed" in (old.kind, prov.kind) else prov.kind
+                    new_prov = Provenance(kind, route=prov.route, at=prov.at, by=prov.by,  # type: ignore[arg-type]
+                                          source=" and ".join(
+                                              x for x in (old.source, prov.source) if x))
+                elif (new_lo, new_hi) != (old_lo, old_hi):
+                    new_prov = prov
+            if (new_lo, new_hi) != (old_lo, old_hi) or new_prov != old:
+                cur.execute("UPDATE entry SET d_lower = ?, d_upper = ?, provenance = ? "
+                            "WHERE id = ?", (new_lo, new_hi, _dumps(new_prov.to_dict()), eid))
+                if new_prov is prov and proof is not None:
                     cur.execute("UPDATE entry SET proof = ? WHERE id = ?", (_dumps(proof), eid))
                 status = "merged"
+            if old_weights is None and facts.weights is not None and facts.side != "trusted":
+                cur.execute("UPDATE entry SET weights = ? WHERE id = ?",
+                            (_dumps(facts.weights), eid))
         for item in recipes:
             p = item.get("permutation")
             if perm is not None:  # compose: recipe code -> this code -> stored generator
@@ -1398,6 +1745,10 @@ class Catalog:
         Every good line is imported in one transaction; each bad line is reported in
         :attr:`ImportReport.errors` with its line number and not imported.
 
+        What a record states is a claim. With ``verify`` it is re-proved here (the entry
+        reads "proved"); without, it is *trusted*: it is still checked cheaply and stored
+        as a claim (see :meth:`prove_claims`) unless a cheap check happens to prove it.
+
         Parameters
         ----------
         lines : iterable of str
@@ -1407,11 +1758,15 @@ class Catalog:
             Re-prove each record: its weight distribution is recomputed (which proves d)
             when affordable, else d is re-proved by :func:`gf2codes.distance.minimum_distance`
             within ``time_limit`` seconds per record; a record whose claim is not confirmed
-            is an error. With ``verify=False`` the record's own weight distribution and
-            invariant are trusted (for the shipped seed catalog, verified by the tests).
+            is an error, and the proved interval is stored. With ``verify=False`` every
+            cheap check still runs -- rank, ``n`` and ``k``, the stated weight distribution
+            against the stated d and the MacWilliams identities, then the code's own weight
+            distribution when ``2^min(k, n-k)`` is small (a proof) or else a short
+            information-set search for a codeword lighter than the claim -- and a record
+            that contradicts itself or a check is refused.
         """
         report = ImportReport()
-        ready: list[tuple[int, _Parsed, CodeFacts]] = []
+        ready: list[tuple[int, _Parsed, CodeFacts, Provenance]] = []
         for lineno, line in enumerate(lines, start=1):
             if not line.strip():
                 continue
@@ -1422,50 +1777,47 @@ class Catalog:
                 except json.JSONDecodeError as exc:
                     raise ParseError(f"{where}: not valid JSON ({exc.msg}).") from None
                 rec = parse_entry_record(obj, where)
-                facts = self._facts_for_import(rec, where, verify, time_limit)
+                facts, prov = self._facts_for_import(rec, where, verify, time_limit, source)
             except (ParseError, ParameterError) as exc:
                 report.errors.append((lineno, str(exc)))
                 continue
-            ready.append((lineno, rec, facts))
+            ready.append((lineno, rec, facts, prov))
+            report.status[prov.kind] = report.status.get(prov.kind, 0) + 1
         if ready:
             with self._write() as cur:
                 self._store_all(cur, ready, report, origin)
         return report
 
     def _store_all(self, cur, ready, report: ImportReport, origin: str) -> None:
-        for lineno, rec, facts in ready:
+        for lineno, rec, facts, prov in ready:
             try:
                 _, status = self._store(cur, rec.code, facts, rec.d_lower, rec.d_upper,
                                         rec.proof, rec.recipes, rec.added, rec.added_by,
-                                        rec.origin or origin)
+                                        rec.origin or origin, prov)
             except CatalogError as exc:
                 report.errors.append((lineno, str(exc)))
+                report.status[prov.kind] -= 1
                 continue
             setattr(report, status, getattr(report, status) + 1)
 
     @staticmethod
     def _facts_for_import(rec: _Parsed, where: str, verify: bool,
-                          time_limit: float | None) -> CodeFacts:
+                          time_limit: float | None, source: str
+                          ) -> tuple[CodeFacts, Provenance]:
         code = rec.code
-        if not verify and rec.invariant and (
-                rec.invariant.startswith(_INVARIANT_SCHEME + ":")
-                or rec.invariant.startswith("coarse:")):
-            facts = CodeFacts(_subspace_digest(code), rec.weights, rec.invariant,
-                              "coarse" if rec.invariant.startswith("coarse:") else "trusted")
-            return facts
+        if not verify:
+            return _trusted_facts(rec, where, source)
         facts = code_facts(code)
         if rec.weights is not None and facts.weights is not None and rec.weights != facts.weights:
             raise ParseError(f"{where}: the stated weight distribution is not the code's ("
                              + _first_difference(rec.weights, facts.weights) + ").")
-        if not verify:
-            return facts
         if facts.d is not None:
             if not rec.d_lower <= facts.d <= rec.d_upper:
                 raise ParseError(f"{where}: the record states {rec.d_lower} <= d <= "
                                  f"{rec.d_upper}, but the code has d = {facts.d}.")
             rec.d_lower = rec.d_upper = facts.d
             rec.proved = True
-            return facts
+            return facts, Provenance.proved_here("weight distribution")
         from .distance import minimum_distance
 
         result = minimum_distance(code, time_limit=time_limit)
@@ -1475,8 +1827,10 @@ class Catalog:
         if result.lower < rec.d_lower:
             raise ParseError(f"{where}: could not confirm d >= {rec.d_lower} within "
                              f"{time_limit} s ({result.describe()}).")
-        rec.d_upper = min(rec.d_upper, result.upper)
-        return facts
+        # store what was proved here, not what the record states
+        rec.d_lower, rec.d_upper = int(result.lower), int(result.upper)
+        rec.proved = result.exact
+        return facts, Provenance.proved_here(result.method, result.seconds)
 
     def import_shipped(self) -> ImportReport:
         """Import the shipped seed records (again): only what is missing is added."""
@@ -1499,14 +1853,78 @@ class Catalog:
                     where = f"{path}, line {lineno}"
                     try:
                         rec = parse_entry_record(json.loads(line), where)
-                        facts = self._facts_for_import(rec, where, False, None)
+                        facts, prov = _trusted_facts(
+                            rec, where, f"the shipped seed of gf2codes {__version__}")
                     except (ParseError, ParameterError, json.JSONDecodeError) as exc:
                         raise CatalogError(f"the shipped catalog is damaged: {exc}") from None
-                    ready.append((lineno, rec, facts))
+                    ready.append((lineno, rec, facts, prov))
+                    report.status[prov.kind] = report.status.get(prov.kind, 0) + 1
             self._store_all(cur, ready, report, "shipped")
         cur.execute("INSERT OR REPLACE INTO meta VALUES ('shipped_imported', ?)",
                     (f"{__version__} at {_now()}",))
         return report
+
+    # ---------------------------------------------------------------- proving claims
+    def prove_claims(self, ids: Iterable[int] | None = None, *,
+                     time_limit: float | None = 10.0,
+                     progress: Any = None) -> list[ProofOutcome]:
+        """Prove the distance of claimed (and checked) entries here; upgrade them.
+
+        Each entry gets :func:`gf2codes.distance.minimum_distance` with ``time_limit``
+        seconds (None: no limit). What is proved replaces the claim: an exact d makes the
+        entry "proved"; a proved interval that contradicts the claim replaces it too (the
+        claim was false); an interval that does not settle the claim leaves the entry
+        claimed. Each entry is written in its own transaction, so Ctrl-C keeps what was
+        proved.
+
+        Parameters
+        ----------
+        ids : iterable of int, optional
+            The entries to prove (default: every entry that is not proved here).
+        time_limit : float or None
+            Seconds per entry.
+        progress : callable, optional
+            Called as ``progress(done, total, {"note": ...})`` after each entry.
+
+        Returns
+        -------
+        list of ProofOutcome
+        """
+        from .distance import minimum_distance
+
+        if time_limit is not None and not time_limit > 0:
+            raise ParameterError(f"Argument 'time_limit' must be positive, not {time_limit}.")
+        if ids is None:
+            todo = [e for e in self.entries() if not e.provenance.proved]
+        else:
+            todo = [self.get(i) for i in ids]
+        outcomes: list[ProofOutcome] = []
+        for done, entry in enumerate(todo, start=1):
+            before = (entry.d_lower, entry.d_upper, entry.provenance)
+            if entry.provenance.proved:
+                outcomes.append(ProofOutcome(entry.id, before[0], before[1], before[2],
+                                             entry.d_lower, entry.d_upper, "already proved"))
+                continue
+            result = minimum_distance(entry.code, time_limit=time_limit, max_work=None)
+            lo, hi = int(result.lower), int(result.upper)
+            contradicts = lo > entry.d_upper or hi < entry.d_lower
+            if result.exact or contradicts:
+                prov = Provenance.proved_here(result.method, result.seconds)
+                proof = {"method": result.method, "seconds": round(result.seconds, 3),
+                         "codewords": int(result.codewords)}
+                with self._write() as cur:
+                    cur.execute("UPDATE entry SET d_lower = ?, d_upper = ?, provenance = ?, "
+                                "proof = ? WHERE id = ?",
+                                (lo, hi, _dumps(prov.to_dict()), _dumps(proof), entry.id))
+                verdict = ("the claim was false" if contradicts else "proved")
+            else:
+                prov, verdict = entry.provenance, "not settled"
+                lo, hi = entry.d_lower, entry.d_upper
+            outcomes.append(ProofOutcome(entry.id, before[0], before[1], before[2], lo, hi,
+                                         verdict, result.describe()))
+            if progress is not None:
+                progress(done, len(todo), {"note": f"entry {entry.id}: {verdict}"})
+        return outcomes
 
     # ---------------------------------------------------------------- health
     def check(self) -> list[str]:

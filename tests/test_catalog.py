@@ -355,14 +355,15 @@ def test_two_processes_adding_at_once_lose_nothing(tmp_path):
 _KILLED = textwrap.dedent("""
     import sys, time
     from gf2codes import families as F
-    from gf2codes.catalog import open_catalog, code_facts
+    from gf2codes.catalog import open_catalog, code_facts, Provenance
     with open_catalog(sys.argv[1], shipped=False) as cat:
         for m in (2, 3, 4):
             cat.add(F.hamming(m), d=3, source="family")
         golay = F.golay()
         facts = code_facts(golay)
         with cat._write() as cur:
-            cat._store(cur, golay, facts, 7, 7, None, [{"source": "family"}], None, None, "user")
+            cat._store(cur, golay, facts, 7, 7, None, [{"source": "family"}], None, None, "user",
+                       Provenance.proved_here("weight distribution"))
             print("in transaction", flush=True)
             time.sleep(60)
     """)
