@@ -305,7 +305,7 @@ class Provenance:
             return "proved here" + (f" ({', '.join(parts)})" if parts else "")
         who = f"claimed by {self.source}" if self.source else "claimed"
         if self.kind == "checked":
-            return f"{who}; checked here ({self.route}), which is not a proof"
+            return f"{who}; cheap checks passed here ({self.route})"
         return f"{who}, not checked"
 
 
@@ -1928,15 +1928,26 @@ class Catalog:
 
     # ---------------------------------------------------------------- health
     def check(self) -> list[str]:
-        """``PRAGMA integrity_check`` and ``foreign_key_check``: an empty list when healthy."""
+        """``PRAGMA integrity_check``, ``foreign_key_check`` and every stored weight
+        distribution against its entry's interval: an empty list when healthy."""
         problems = [r[0] for r in self._con.execute("PRAGMA integrity_check") if r[0] != "ok"]
         problems += [f"dangling recipe {r}" for r in self._con.execute("PRAGMA foreign_key_check")]
+        for eid, lo, hi, weights in self._con.execute(
+                "SELECT id, d_lower, d_upper, weights FROM entry WHERE weights IS NOT NULL"):
+            w = json.loads(weights)
+            d = next((i for i, a in enumerate(w) if i and a), None)
+            if d is None or not lo <= d <= hi:
+                problems.append(f"entry {eid}: its stored weight distribution gives d = {d}, "
+                                f"but it states {lo} <= d <= {hi}")
         return problems
 
     def info(self) -> dict[str, Any]:
-        """Path, schema version, counts and meta values."""
+        """Path, schema version, counts (by origin, and by provenance: how many entries have
+        d proved here, checked or only claimed) and meta values."""
         meta = dict(self._con.execute("SELECT key, value FROM meta"))
         by_origin = dict(self._con.execute("SELECT origin, count(*) FROM entry GROUP BY origin"))
+        by_status = dict(self._con.execute(
+            "SELECT json_extract(provenance, '$.kind'), count(*) FROM entry GROUP BY 1"))
         return {"path": str(self.path), "schema": SCHEMA_VERSION, "entries": len(self),
                 "recipes": self._con.execute("SELECT count(*) FROM recipe").fetchone()[0],
-                "by_origin": by_origin, "meta": meta}
+                "by_origin": by_origin, "by_status": by_status, "meta": meta}

@@ -1,11 +1,18 @@
 """``gf2codes catalog ...``: the local catalog of proved codes.
 
 Sub-commands: ``add FILE``, ``list``, ``show ID``, ``pick``, ``table``, ``export``,
-``import FILE``, ``remove ID``, ``info``. Every one takes ``--catalog PATH`` (default:
-``GF2CODES_CATALOG``, else ``$XDG_DATA_HOME/gf2codes/catalog.sqlite``) and ``--json``.
+``import FILE``, ``prove [ID...]``, ``remove ID``, ``info``. Every one takes ``--catalog
+PATH`` (default: ``GF2CODES_CATALOG``, else ``$XDG_DATA_HOME/gf2codes/catalog.sqlite``)
+and ``--json``.
 
-Exit status: 0 on success; 1 when ``pick`` finds nothing or ``import`` rejected a line;
-2 for errors (one line on standard error).
+Every distance shown says how it is known: "proved" only for a proof made by this
+installation; what a file or the shipped seed states is "claimed" (``prove`` proves it).
+The reading actions never create anything: without a catalog file they answer from the
+shipped seed in memory, and say so (``info`` says the catalog does not exist). A catalog
+file the user may not write is read normally; the writing actions say why they cannot.
+
+Exit status: 0 on success; 1 when ``pick`` finds nothing, ``import`` rejected a line or
+``prove`` left a claim unproved; 2 for errors (one line on standard error).
 """
 
 from __future__ import annotations
@@ -112,9 +119,21 @@ def register(subparsers: Any) -> None:
     p = sub.add_parser("import", help="read JSON-lines records (idempotent)")
     p.add_argument("file", metavar="FILE", help="JSON lines; '-' for standard input")
     p.add_argument("--trust", action="store_true",
-                   help="do not re-prove the records (trust their weights and distances)")
+                   help="do not re-prove the records: check them cheaply (a contradiction "
+                        "is refused) and keep what is not proved as a claim")
     p.add_argument("--time-limit", type=float, default=10.0, metavar="S",
                    help="seconds per record for re-proving d when the weights are too costly")
+    _common_options(p, suppress=True)
+
+    p = sub.add_parser(
+        "prove", help="prove the d of claimed entries here (upgrading them to proved)",
+        description="Prove the minimum distance of entries whose d is only claimed (trusted "
+                    "imports, the shipped seed, entries stored before provenance was "
+                    "recorded). A proof replaces the claim; a claim found false is corrected.")
+    p.add_argument("ids", metavar="ID", nargs="*", type=int,
+                   help="entries to prove (default: every entry not proved here)")
+    p.add_argument("--time-limit", type=float, default=10.0, metavar="S",
+                   help="seconds per entry (default 10)")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("remove", help="delete an entry and its recipes")
@@ -133,11 +152,43 @@ def _label(entry) -> str:
     return triple_text(entry.n, entry.k, entry.d_lower, entry.d_upper)
 
 
+def _status(entry) -> str:
+    """``d proved``, ``interval proved``, ``d claimed``...: how d is known."""
+    kind = entry.provenance.kind
+    if kind == "proved":
+        return "d proved" if entry.closed else (
+            "lower bound proved" if entry.d_upper is None else "interval proved")
+    return "d claimed, checked only" if kind == "checked" else "d claimed"
+
+
+#: Actions that change the catalog (they may create it); the others only read.
+_WRITING = {"add", "import", "remove", "prove"}
+
+
 def run(args: argparse.Namespace) -> int:
-    from ..catalog import open_catalog
+    from ..catalog import default_catalog_path, open_catalog
 
     handler = _HANDLERS[args.action]
-    with open_catalog(args.catalog) as cat:
+    if args.action in _WRITING:
+        with open_catalog(args.catalog) as cat:
+            cat.require_writable(f"{args.action} entries")
+            return handler(cat, args)
+    path = default_catalog_path() if args.catalog is None else args.catalog
+    try:
+        cat = open_catalog(path, create=False)
+    except CatalogError:
+        from pathlib import Path
+
+        if Path(path).exists():
+            raise
+        if args.action == "info":
+            raise CatalogError(f"{path}: no catalog there; nothing was created (the first "
+                               "'catalog add', 'catalog import' or 'search' creates it with "
+                               "the shipped seed).") from None
+        print(f"note: no catalog at {path} (nothing was created); answering from the "
+              "shipped seed.", file=sys.stderr)
+        cat = open_catalog(":memory:")
+    with cat:
         return handler(cat, args)
 
 
@@ -150,7 +201,7 @@ def _add(cat, args) -> int:
     if args.time_limit is not None and not args.time_limit > 0:
         raise ParameterError(f"Argument '--time-limit' must be positive, not {args.time_limit}.")
     rec = read_code(args.file, parity_check=args.parity_check)
-    code = rec.code
+    code = rec.code  # what the file states about d is ignored: d is proved here
     with ProgressBar("proving d") as bar:
         try:
             result = minimum_distance(code, time_limit=args.time_limit, progress=bar)
@@ -169,7 +220,8 @@ def _add(cat, args) -> int:
     if args.json:
         print_json({"id": eid, "status": status, "n": entry.n, "k": entry.k,
                     "d": entry.d if entry.proved else None, "d_lower": entry.d_lower,
-                    "d_upper": entry.d_upper, "proof": proof})
+                    "d_upper": entry.d_upper, "proof": proof,
+                    "provenance": entry.provenance.to_dict()})
         return 0
     what = {"added": "added as entry", "merged": "merged into equivalent entry",
             "unchanged": "already stored as entry"}[status]
@@ -185,18 +237,22 @@ def _list(cat, args) -> int:
     if args.json:
         print_json([{"id": e.id, "n": e.n, "k": e.k, "d": e.d if e.proved else None,
                      "d_lower": e.d_lower, "d_upper": e.d_upper, "origin": e.origin,
+                     "status": e.provenance.kind,
                      "recipes": [r["source"] for r in e.recipes]} for e in entries])
         return 0
-    rows = [("id", "code", "origin", "recipes", "first recipe")]
+    rows = [("id", "code", "d is", "origin", "recipes", "first recipe")]
     for e in entries:
         first = e.recipes[0] if e.recipes else None
-        rows.append((str(e.id), _label(e), e.origin or "", str(len(e.recipes)),
-                     _recipe_text(first) if first else ""))
-    widths = [max(len(r[i]) for r in rows) for i in range(4)]
+        rows.append((str(e.id), _label(e), _status(e).removeprefix("d "), e.origin or "",
+                     str(len(e.recipes)), _recipe_text(first) if first else ""))
+    widths = [max(len(r[i]) for r in rows) for i in range(5)]
     for r in rows:
-        line = "  ".join(f"{r[i]:<{widths[i]}}" for i in range(4)) + "  " + r[4]
+        line = "  ".join(f"{r[i]:<{widths[i]}}" for i in range(5)) + "  " + r[5]
         console.print(line.rstrip(), soft_wrap=True)
-    console.print(f"{len(entries)} entr{'y' if len(entries) == 1 else 'ies'}")
+    claims = sum(1 for e in entries if not e.provenance.proved)
+    console.print(f"{len(entries)} entr{'y' if len(entries) == 1 else 'ies'}"
+                  + (f"; {claims} with d only claimed ('gf2codes catalog prove' proves them)"
+                     if claims else ""))
     return 0
 
 
@@ -226,18 +282,18 @@ def _show(cat, args) -> int:
         return 0
     console.print(f"entry {entry.id}: {_label(entry)}  ({entry.origin}; added {entry.added_at} "
                   f"by gf2codes {entry.added_by})", soft_wrap=True)
-    if entry.proved:
-        console.print(f"  d = {entry.d} proved", end="")
+    prov = entry.provenance
+    what = f"d = {entry.d}" if entry.closed else f"{entry.d_lower} ≤ d ≤ {entry.d_upper}"
+    if prov.proved:
+        tail = "" if entry.closed else " (only the interval is proved)"
+        console.print(f"  {what} {prov.describe()}{tail}", soft_wrap=True)
     else:
-        console.print(f"  {entry.d_lower} ≤ d ≤ {entry.d_upper} (only the interval is "
-                      "proved)", end="")
-    if entry.proof:
-        details = ", ".join(f"{k} {v}" for k, v in entry.proof.items())
-        console.print(f" -- {details}")
-    else:
-        console.print()
+        console.print(f"  {what}: {prov.describe()}. Not proved here; 'gf2codes catalog "
+                      f"prove {entry.id}' proves it.", soft_wrap=True)
     if entry.weights:
-        console.print(f"  weight distribution: {weight_text(entry.weights)}", soft_wrap=True)
+        label = "weight distribution" if prov.proved else \
+            "weight distribution (as stored, not computed here)"
+        console.print(f"  {label}: {weight_text(entry.weights)}", soft_wrap=True)
     console.print(f"  invariant: {entry.invariant}", soft_wrap=True)
     console.print(f"  recipes ({len(entry.recipes)}):")
     for r in entry.recipes:
@@ -283,13 +339,18 @@ def _pick(cat, args) -> int:
         return 0
     label = _label(entry)
     if entry.derived_from is None:
-        console.print(f"{label}: entry {entry.id} ({entry.origin}), "
-                      f"{'d proved' if entry.proved else 'interval proved'}")
+        console.print(f"{label}: entry {entry.id} ({entry.origin}), {_status(entry)}")
+        if not entry.provenance.proved:
+            console.print(f"  {entry.provenance.describe()}; not proved here ('gf2codes "
+                          f"catalog prove {entry.id}' proves it)", soft_wrap=True)
         first = entry.recipes[0] if entry.recipes else None
         if first:
             console.print(f"  recipe: {_recipe_text(first)}", soft_wrap=True)
     else:
-        console.print(f"{label}: derived from {entry.derived_from}")
+        console.print(f"{label}: derived from {entry.derived_from}", soft_wrap=True)
+        if not entry.provenance.proved:
+            console.print(f"  d ≥ {entry.d} is a claim: the base entry's d is claimed, not "
+                          "proved here", soft_wrap=True)
         if proof_note:
             console.print(f"  {proof_note}")
     if args.rows:
@@ -300,10 +361,19 @@ def _pick(cat, args) -> int:
     return 0
 
 
+#: Largest k and d that ``table`` accepts (each cell computes the least length the bounds
+#: allow, LP included).
+_TABLE_LIMIT = 64
+
+
 def _table(cat, args) -> int:
     ks, ds = parse_range("k", args.k), parse_range("d", args.d)
     check_int("k", ks.start, minimum=1)
     check_int("d", ds.start, minimum=1)
+    for name, r in (("k", ks), ("d", ds)):
+        if r.stop - 1 > _TABLE_LIMIT:
+            raise ParameterError(f"Argument '{name}' must be at most {_TABLE_LIMIT} in catalog "
+                                 f"table, not {r.stop - 1} (use 'catalog pick' for one cell).")
     rows = cat.length_table(ks, ds)
     if args.json:
         print_json({"k": [ks[0], ks[-1]], "d": [ds[0], ds[-1]], "cells": rows})
@@ -340,6 +410,10 @@ def _table(cat, args) -> int:
     out.append(f"{len(settled)} of {len(rows)} cells proved shortest, "
                f"{len(rows) - len(settled) - len(missing)} open, {len(missing)} with nothing "
                "on file")
+    claims = [r for r in rows if r.get("claimed_n") is not None]
+    if claims:
+        out.append(f"{len(claims)} cell(s) have a shorter length only claimed by unproved "
+                   "entries (not counted; 'gf2codes catalog prove' proves them)")
     sys.stdout.write("\n".join(out) + "\n")
     return 0
 
@@ -347,8 +421,11 @@ def _table(cat, args) -> int:
 def _export(cat, args) -> int:
     filters = {"n": _range("n", args.n), "k": _range("k", args.k), "d": _range("d", args.d)}
     if args.output:
-        with open(args.output, "w", encoding="utf-8") as fh:
-            count = cat.export(fh, stamps=not args.no_stamps, **filters)
+        try:
+            with open(args.output, "w", encoding="utf-8") as fh:
+                count = cat.export(fh, stamps=not args.no_stamps, **filters)
+        except OSError as exc:
+            raise CatalogError(f"cannot write {args.output!r}: {exc.strerror}.") from None
         msg = {"exported": count, "file": args.output}
         if args.json:
             print_json(msg)
@@ -383,7 +460,46 @@ def _import(cat, args) -> int:
             print(message, file=sys.stderr)
         console.print(f"{report.added} added, {report.merged} merged into existing entries, "
                       f"{report.unchanged} already present, {len(report.errors)} rejected")
+        claims = report.status.get("checked", 0) + report.status.get("claimed", 0)
+        if claims:
+            console.print(f"{claims} record(s) kept as claims: their d is not proved here "
+                          "(cheap checks passed); 'gf2codes catalog prove' proves them",
+                          soft_wrap=True)
     return 1 if report.errors else 0
+
+
+def _prove(cat, args) -> int:
+    from ._common import ProgressBar
+
+    if not args.time_limit > 0:
+        raise ParameterError(f"Argument '--time-limit' must be positive, not {args.time_limit}.")
+    with ProgressBar("proving claims") as bar:
+        outcomes = cat.prove_claims(args.ids or None, time_limit=args.time_limit, progress=bar)
+    if args.json:
+        print_json([{"id": o.id, "verdict": o.verdict, "d_lower": o.d_lower,
+                     "d_upper": o.d_upper, "claimed_lower": o.claimed_lower,
+                     "claimed_upper": o.claimed_upper, "detail": o.detail} for o in outcomes])
+    else:
+        for o in outcomes:
+            claim = (f"{o.claimed_lower}" if o.claimed_lower == o.claimed_upper
+                     else f"{o.claimed_lower}..{o.claimed_upper}")
+            if o.verdict == "already proved":
+                console.print(f"entry {o.id}: already proved here")
+            elif o.verdict == "not settled":
+                console.print(f"entry {o.id}: still claimed (d = {claim}); within "
+                              f"{args.time_limit:g} s only {o.detail}", soft_wrap=True)
+            else:
+                got = (f"d = {o.d_lower}" if o.d_lower == o.d_upper
+                       else f"{o.d_lower} ≤ d ≤ {o.d_upper}")
+                if o.verdict == "the claim was false":
+                    console.print(f"entry {o.id}: the claim d = {claim} was false; {got} "
+                                  "proved here (the entry is corrected)", soft_wrap=True)
+                else:
+                    console.print(f"entry {o.id}: {got} proved here (the claim held)")
+        unsettled = sum(1 for o in outcomes if o.verdict == "not settled")
+        console.print(f"{len(outcomes)} entr{'y' if len(outcomes) == 1 else 'ies'} looked at, "
+                      f"{unsettled} still claimed")
+    return 1 if any(o.verdict == "not settled" for o in outcomes) else 0
 
 
 def _remove(cat, args) -> int:
@@ -399,6 +515,8 @@ def _remove(cat, args) -> int:
 
 def _info(cat, args) -> int:
     info = cat.info()
+    info["exists"] = True
+    info["readonly"] = cat.readonly
     info["problems"] = cat.check()
     if args.json:
         print_json(info)
@@ -408,4 +526,5 @@ def _info(cat, args) -> int:
 
 
 _HANDLERS = {"add": _add, "list": _list, "show": _show, "pick": _pick, "table": _table,
-             "export": _export, "import": _import, "remove": _remove, "info": _info}
+             "export": _export, "import": _import, "prove": _prove, "remove": _remove,
+             "info": _info}
