@@ -169,8 +169,22 @@ def record_to_code(obj: Any, source: str = "<record>") -> CodeRecord:
 
 
 def read_matrix_file(path: str | os.PathLike[str]) -> np.ndarray:
-    """Read a text or ``.npy`` matrix file into a ``uint8`` 0/1 array."""
+    """Read a text or ``.npy`` matrix file into a ``uint8`` 0/1 array.
+
+    Raises
+    ------
+    ParseError
+        Naming the file: missing, a folder, empty, unreadable (permission denied...) or
+        not a 0/1 matrix.
+    """
     p = Path(path)
+    try:
+        return _read_matrix_file(p)
+    except OSError as exc:
+        raise _cannot_read(p, exc) from None
+
+
+def _read_matrix_file(p: Path) -> np.ndarray:
     if not p.exists():
         raise ParseError(f"{p}: no such file.")
     if p.is_dir():
@@ -198,6 +212,10 @@ def read_matrix_file(path: str | os.PathLike[str]) -> np.ndarray:
     return parse_text_matrix(text, source=str(p))
 
 
+def _cannot_read(p: Path, exc: OSError) -> ParseError:
+    return ParseError(f"{p}: cannot read ({exc.strerror or exc}).")
+
+
 def read_code(path: str | os.PathLike[str], *, parity_check: bool = False) -> CodeRecord:
     """Read a code from a text matrix, ``.npy`` file or JSON code record.
 
@@ -209,15 +227,18 @@ def read_code(path: str | os.PathLike[str], *, parity_check: bool = False) -> Co
         which say which matrix they hold).
     """
     p = Path(path)
-    if p.exists() and p.is_file() and p.stat().st_size:
-        with open(p, "rb") as fh:
-            start = fh.read(64).lstrip()
-        if start.startswith(b"{"):
-            try:
-                obj = json.loads(p.read_text(encoding="utf-8"))
-            except (json.JSONDecodeError, UnicodeDecodeError) as exc:
-                raise ParseError(f"{p}: not valid JSON ({exc}).") from None
-            return record_to_code(obj, source=str(p))
+    try:
+        if p.exists() and p.is_file() and p.stat().st_size:
+            with open(p, "rb") as fh:
+                start = fh.read(64).lstrip()
+            if start.startswith(b"{"):
+                try:
+                    obj = json.loads(p.read_text(encoding="utf-8"))
+                except (json.JSONDecodeError, UnicodeDecodeError) as exc:
+                    raise ParseError(f"{p}: not valid JSON ({exc}).") from None
+                return record_to_code(obj, source=str(p))
+    except OSError as exc:  # permission denied, a device error...
+        raise _cannot_read(p, exc) from None
     M = read_matrix_file(p)
     try:
         code = Code.from_parity_check(M) if parity_check else Code(M)
@@ -244,10 +265,25 @@ def code_to_record(code: Code, *, d: int | None = None, d_lower: int | None = No
 
 def write_code(code: Code, path: str | os.PathLike[str], fmt: str | None = None,
                **record_fields: Any) -> Path:
-    """Write ``code`` as ``text``, ``npy`` or ``json`` (default: from the file name)."""
+    """Write ``code`` as ``text``, ``npy`` or ``json`` (default: from the file name).
+
+    Raises
+    ------
+    ParameterError
+        For an unknown format, or a file that cannot be written (``cannot write 'x':
+        Permission denied.``).
+    """
     p = Path(path)
     if fmt is None:
         fmt = {".npy": "npy", ".json": "json"}.get(p.suffix.lower(), "text")
+    try:
+        _write_code(code, p, fmt, record_fields)
+    except OSError as exc:
+        raise ParameterError(f"cannot write {str(p)!r}: {exc.strerror or exc}.") from None
+    return p
+
+
+def _write_code(code: Code, p: Path, fmt: str, record_fields: dict[str, Any]) -> None:
     if fmt == "text":
         header = f"# [{code.n}, {code.k}] generator matrix"
         if code.name:
@@ -260,4 +296,3 @@ def write_code(code: Code, path: str | os.PathLike[str], fmt: str | None = None,
                      encoding="utf-8")
     else:
         raise ParameterError(f"Argument 'format' must be one of text, npy, json, not {fmt!r}.")
-    return p

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import argparse
 import sys
+from pathlib import Path
 from typing import Any
 
 from ..code import Code
@@ -66,13 +67,20 @@ def _summary(code: Code, heading: str | None = None) -> list[str]:
     return lines
 
 
-def emit(code: Code, args: argparse.Namespace, lines: list[str]) -> int:
-    """Write (``-o``), then verify (``--verify``) or print the code; return the exit status."""
+def emit(code: Code, args: argparse.Namespace, lines: list[str],
+         record_fields: dict[str, Any] | None = None) -> int:
+    """Write (``-o``), then verify (``--verify``) or print the code; return the exit status.
+
+    ``record_fields`` are extra keys of a JSON record (written or printed)."""
     from .. import formats
 
+    extra = dict(record_fields or {})
     written = None
     if args.output:
-        written = str(formats.write_code(code, args.output, args.format))
+        fmt = args.format or {".npy": "npy", ".json": "json"}.get(
+            Path(args.output).suffix.lower(), "text")
+        written = str(formats.write_code(code, args.output, fmt,
+                                         **(extra if fmt == "json" else {})))
     if args.verify:
         from ._verify import report  # the lead's module; imported only when asked for
 
@@ -80,7 +88,7 @@ def emit(code: Code, args: argparse.Namespace, lines: list[str]) -> int:
             _print_lines(lines + ([f"  wrote {written}"] if written else []))
         return int(report(code, as_json=args.json, time_limit=args.time_limit))
     if args.json:
-        record = formats.code_to_record(code)
+        record = formats.code_to_record(code, **extra)
         record["distance"] = describe_distance(code)
         if written:
             record["written"] = written

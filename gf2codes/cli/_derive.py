@@ -1,4 +1,10 @@
-"""``gf2codes derive FILE OP...``: apply derivations to a code read from a file."""
+"""``gf2codes derive FILE OP...``: apply derivations to a code read from a file.
+
+What a file states about d is a claim. The bounds written as ``d_lower`` / ``d_upper``
+are only those the derivation rules prove from proved inputs: the bounds of the file's
+family recipe when rebuilding it gives the same code, else none. A stated d is carried
+through the derivation as a claim (printed as such and written under ``claim``).
+"""
 
 from __future__ import annotations
 
@@ -6,8 +12,9 @@ import argparse
 from pathlib import Path
 from typing import Any
 
+from ..code import Code
 from ..derive import UNARY_OPERATIONS, apply_operations, parse_operations
-from ..exceptions import ParseError
+from ..exceptions import Gf2CodesError, ParseError
 from ._build import add_output_flags, describe_distance, emit
 
 __all__ = ["register", "run"]
@@ -39,24 +46,83 @@ def _claimed(value: Any, key: str, source: str) -> int | None:
     return value
 
 
+def _stated(rec: Any, source: str) -> tuple[int | None, int | None]:
+    """The interval the file states (its ``d`` fields, else a carried ``claim``)."""
+    d = _claimed(rec.d, "d", source)
+    lo = _claimed(rec.d_lower, "d_lower", source)
+    hi = _claimed(rec.d_upper, "d_upper", source)
+    claim = rec.extra.get("claim")
+    if d is None and lo is None and hi is None and isinstance(claim, dict):
+        lo = _claimed(claim.get("d_lower"), "claim.d_lower", source)
+        hi = _claimed(claim.get("d_upper"), "claim.d_upper", source)
+    return (d, d) if d is not None else (lo, hi)
+
+
+def _proved_by_recipe(code: Code) -> Code | None:
+    """The code rebuilt from its recipe, when that gives the same code: the bounds its
+    construction proves here (the file's own d fields are only claims)."""
+    from ..derive import rebuild
+
+    if not code.recipe or code.recipe[0].get("family") in (None, "matrix"):
+        return None
+    try:
+        built = rebuild(code.recipe)
+    except Gf2CodesError:
+        return None
+    return built if built == code else None
+
+
+def _interval_text(lo: int | None, hi: int | None) -> str:
+    if lo is not None and lo == hi:
+        return f"d = {lo}"
+    if lo is not None and hi is not None:
+        return f"{lo} <= d <= {hi}"
+    return f"d >= {lo}" if lo is not None else f"d <= {hi}"
+
+
 def run(args: argparse.Namespace) -> int:
     from .. import formats
 
     steps = parse_operations(args.operations)
     rec = formats.read_code(args.file, parity_check=args.parity_check)
-    d = _claimed(rec.d, "d", args.file)
-    lo = _claimed(rec.d_lower, "d_lower", args.file)
-    hi = _claimed(rec.d_upper, "d_upper", args.file)
+    lo, hi = _stated(rec, args.file)
+    built = _proved_by_recipe(rec.code)
     code = rec.code.with_info(
         name=rec.code.name or Path(args.file).name,
-        d_lower=d if d is not None else lo,
-        d_upper=d if d is not None else hi,
+        d_lower=None if built is None else built.d_lower,
+        d_upper=None if built is None else built.d_upper,
     )
-    lines = [f"from {args.file}: [{code.n}, {code.k}], {describe_distance(code)}"]
+    claim: Code | None = None
+    notes = []
+    if lo is not None or hi is not None:
+        stated = _interval_text(lo, hi)
+        plo, phi = code.d_lower, code.d_upper
+        if (plo is not None and hi is not None and hi < plo) or (
+                phi is not None and lo is not None and lo > phi):
+            notes.append(f"  the file states {stated}, which the construction of its recipe "
+                         "disproves; the claim is ignored")
+        elif (lo is None or (plo is not None and lo <= plo)) and (
+                hi is None or (phi is not None and hi >= phi)):
+            pass  # the claim says no more than what is proved here
+        else:
+            claim = code.with_info(d_lower=lo, d_upper=hi)
+            notes.append(f"  the file states {stated}: a claim, not proved here")
+    lines = [f"from {args.file}: [{code.n}, {code.k}], {describe_distance(code)}", *notes]
     for step in steps:
         code = apply_operations(code, [step])
+        if claim is not None:
+            claim = apply_operations(claim, [step])
         label = step["op"] + (f" ({len(step['coords'])} coordinates)" if "coords" in step
                               else "")
         lines.append(f"  {label}: [{code.n}, {code.k}]")
     lines += [f"result: [n, k] = [{code.n}, {code.k}]", f"  {describe_distance(code)}"]
-    return emit(code, args, lines)
+    extra: dict[str, Any] = {}
+    if claim is not None and (claim.d_lower is not None or claim.d_upper is not None):
+        lines.append(f"  if the file's claim holds: {_interval_text(claim.d_lower, claim.d_upper)}"
+                     " (a claim carried through the derivation, not proved; --verify "
+                     "proves d)")
+        extra["claim"] = {"d_lower": claim.d_lower, "d_upper": claim.d_upper,
+                          "source": str(args.file),
+                          "note": "stated by the input file and carried through the "
+                                  "derivation; not proved"}
+    return emit(code, args, lines, record_fields=extra)

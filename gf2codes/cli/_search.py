@@ -124,10 +124,18 @@ def run(args) -> int:
             if entry is not None:
                 start.append(entry.code)
 
+        if cat is not None and cat.readonly:
+            err_console.print(f"note: the catalog {cat.path} is read-only for this user; the "
+                              "result will not be saved in it.", markup=False)
+
         def save(code, d, info):
-            if cat is not None and info.get("exact"):
+            # a catalog entry is only a starting point: the search re-proves every code
+            # it accepts, so a claimed entry never becomes its answer unproved
+            if cat is not None and not cat.readonly and info.get("exact"):
                 cat.add(code, d=d, proved=True, recipe=list(code.recipe) or None,
-                        source="search", seed=info.get("seed"))
+                        source="search", seed=info.get("seed"),
+                        proof={"method": f"search winner ({info.get('strategy')}), d proved "
+                                         "by minimum_distance"})
 
         label = "search " + " ".join(f"{key}={val}" for key, val in kw.items())
         executor = executor_from_args(args)
