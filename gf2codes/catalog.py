@@ -812,21 +812,30 @@ class Entry:
 
     @property
     def code(self) -> Code:
-        """The code (a derived one is rebuilt from its recipe on first access)."""
+        """The code (a derived one is rebuilt from its recipe on first access).
+
+        Its ``d_lower`` / ``d_upper`` (which every later proof trusts as proved) are set
+        only when the entry's interval was proved here; a claimed entry's code has none.
+        """
         if self._code is None:
+            proved = self.provenance.proved
             if self._base is None:
                 recipe = next((r["recipe"] for r in self.recipes
                                if r.get("recipe") and r.get("permutation") is None
                                and r["source"] != "search"), None)
-                self._code = Code.from_packed(self._generator, self.n, recipe=recipe or None,
-                                              d_lower=self.d_lower, d_upper=self.d_upper)
+                self._code = Code.from_packed(
+                    self._generator, self.n, recipe=recipe or None,
+                    d_lower=self.d_lower if proved else None,
+                    d_upper=self.d_upper if proved else None)
             else:
                 from .derive import rebuild, recipe_of
 
-                base = self._base.code.with_info(recipe=(), name=None)
+                base = self._base.code.with_info(recipe=(), name=None, d_lower=None,
+                                                 d_upper=None)
                 start = recipe_of(base)
                 self._code = rebuild(start + self.steps).with_info(
-                    d_lower=self.d_lower, name=f"from catalog entry {self._base.id}")
+                    d_lower=self.d_lower if proved else None, d_upper=None,
+                    name=f"from catalog entry {self._base.id}")
         return self._code
 
     def to_dict(self) -> dict[str, Any]:
