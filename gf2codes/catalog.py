@@ -20,9 +20,25 @@ one transaction. A file that is not a catalog, or a catalog of a newer schema, r
 Tables: ``entry`` (one row per equivalence class of codes: ``n``, ``k``, the proved
 interval ``d_lower .. d_upper`` -- equal when d is proved --, the generator as packed
 reduced-echelon rows, the weight distribution, the equivalence invariant, the proof,
-when and by which gf2codes version it was added, and its origin: ``user`` or
-``shipped``), ``recipe`` (every way the code was obtained: source, steps, seed and the
-coordinate permutation from the recipe's code to the stored generator) and ``meta``.
+when and by which gf2codes version it was added, its origin: ``user`` or
+``shipped``, and its provenance), ``recipe`` (every way the code was obtained: source,
+steps, seed and the coordinate permutation from the recipe's code to the stored
+generator) and ``meta``.
+
+Provenance: proved here, or claimed
+-----------------------------------
+What a file states is a claim. Each entry's interval carries a :class:`Provenance`:
+``proved`` (by this installation: the route, the time, the version), ``checked`` (a
+record's claim passed the cheap checks of a trusted import, which prove nothing) or
+``claimed`` (stated by its source and not checked -- also every entry stored before
+schema 3, which cannot tell a trusted import from a proof). Only ``proved`` reads
+"proved" anywhere (:attr:`Entry.proved`); claims are never used to prove anything: a
+derived answer from a claimed entry is a claim, :meth:`Catalog.table` counts only
+proofs, :meth:`Catalog.best` prefers a proof to a claim of the same d, and a claimed
+entry's :attr:`Entry.code` carries no distance bounds (so a search re-proves it).
+:meth:`Catalog.prove_claims` proves claims on request and corrects false ones. When a
+proof meets an equivalent claimed entry it replaces the claim; a claim that contradicts
+a proved entry is refused.
 
 The shipped seed catalog
 ------------------------
@@ -30,9 +46,11 @@ The repository's ``catalog/*.jsonl`` files (written by ``scripts/build_catalog.p
 are **imported on first use**: the transaction that creates a new catalog file also
 imports them, marked ``origin = 'shipped'``. One store means one set of ids, merging
 by equivalence across shipped and user entries, and ``remove`` working on everything.
-The records' weight distributions and invariants are trusted at that import (the test
-suite re-proves every shipped record), so creating a catalog takes a fraction of a
-second. ``open_catalog(path, shipped=False)`` creates an empty catalog instead. A
+The records' invariants are trusted at that import (the test suite re-proves every
+shipped record), but their distances are not: each record's weight distribution is
+computed when ``2^min(k, n-k)`` is small (a proof made here, a few milliseconds in all
+for the current seed), and the others are stored as checked claims, so creating a
+catalog still takes a fraction of a second. ``open_catalog(path, shipped=False)`` creates an empty catalog instead. A
 catalog created before a newer seed was shipped can take it with
 :meth:`Catalog.import_shipped` (idempotent: nothing is stored twice).
 
@@ -78,12 +96,14 @@ JSON lines, one entry per line::
      "proof": {"method": "weight distribution"},
      "recipes": [{"source": "family", "recipe": [{"family": "hamming", "m": 3}]}]}
 
-``d`` is null unless proved. A generator row is either a string of ``0``/``1``
+``d`` is null unless proved (by the installation that wrote the record; whoever reads
+it treats it as a claim, see ``import``). A generator row is either a string of ``0``/``1``
 characters, one per coordinate, or ``"hex:"`` followed by ``ceil(n/4)`` lower-case
 hexadecimal digits: coordinate 0 is the most significant bit of the first digit,
 coordinate 4 that of the second, and so on; the unused low bits of the last digit are
 zero (so the row ``1101001`` is ``hex:d2``). Optional keys: ``added`` (ISO 8601 UTC),
-``gf2codes`` (the version that added it), ``origin``; recipe items may carry ``seed``,
+``gf2codes`` (the version that added it), ``origin``, ``provenance`` (how the writer knew
+the interval; informative only, never trusted on import); recipe items may carry ``seed``,
 ``permutation``, ``added`` and ``gf2codes``. Plain ``gf2codes/code`` records
 (:mod:`gf2codes.formats`) are accepted by ``import`` too.
 
@@ -1916,7 +1936,8 @@ class Catalog:
                 continue
             result = minimum_distance(entry.code, time_limit=time_limit, max_work=None)
             lo, hi = int(result.lower), int(result.upper)
-            contradicts = lo > entry.d_upper or hi < entry.d_lower
+            claimed_upper = entry.n if entry.d_upper is None else entry.d_upper
+            contradicts = lo > claimed_upper or hi < entry.d_lower
             if result.exact or contradicts:
                 prov = Provenance.proved_here(result.method, result.seconds)
                 proof = {"method": result.method, "seconds": round(result.seconds, 3),
@@ -1928,7 +1949,7 @@ class Catalog:
                 verdict = ("the claim was false" if contradicts else "proved")
             else:
                 prov, verdict = entry.provenance, "not settled"
-                lo, hi = entry.d_lower, entry.d_upper
+                lo, hi = entry.d_lower, claimed_upper
             outcomes.append(ProofOutcome(entry.id, before[0], before[1], before[2], lo, hi,
                                          verdict, result.describe()))
             if progress is not None:
