@@ -1819,6 +1819,12 @@ class Catalog:
 
     def _store_all(self, cur, ready, report: ImportReport, origin: str) -> None:
         for lineno, rec, facts, prov in ready:
+            # the record's own "proof" is the source's word: kept, labelled, as a claim
+            if prov.proved:
+                rec.proof = {"method": prov.route, **({"seconds": prov.seconds}
+                                                      if prov.seconds is not None else {})}
+            elif rec.proof is not None and set(rec.proof) != {"claimed"}:
+                rec.proof = {"claimed": rec.proof}
             try:
                 _, status = self._store(cur, rec.code, facts, rec.d_lower, rec.d_upper,
                                         rec.proof, rec.recipes, rec.added, rec.added_by,
