@@ -50,9 +50,9 @@ The records' invariants are trusted at that import (the test suite re-proves eve
 shipped record), but their distances are not: each record's weight distribution is
 computed when ``2^min(k, n-k)`` is small (a proof made here, a few milliseconds in all
 for the current seed), and the others are stored as checked claims, so creating a
-catalog still takes a fraction of a second. ``open_catalog(path, shipped=False)`` creates an empty catalog instead. A
-catalog created before a newer seed was shipped can take it with
-:meth:`Catalog.import_shipped` (idempotent: nothing is stored twice).
+catalog still takes a fraction of a second. ``open_catalog(path, shipped=False)``
+creates an empty catalog instead. A catalog created before a newer seed was shipped
+can take it with :meth:`Catalog.import_shipped` (idempotent: nothing is stored twice).
 
 Equivalence
 -----------
@@ -1724,7 +1724,7 @@ class Catalog:
                 if new_prov is prov and proof is not None:
                     cur.execute("UPDATE entry SET proof = ? WHERE id = ?", (_dumps(proof), eid))
                 status = "merged"
-            if old_weights is None and facts.weights is not None and facts.side != "trusted":
+            if old_weights is None and facts.weights is not None:  # computed here
                 cur.execute("UPDATE entry SET weights = ? WHERE id = ?",
                             (_dumps(facts.weights), eid))
         for item in recipes:

@@ -230,7 +230,7 @@ class _FakeCatalog:
         fit = [e for e in self.entries if (k is None or e.k == k) and (d is None or e.d >= d)]
         return min(fit, key=lambda e: e.n) if fit else None
 
-    def add(self, code, *, d, proved=True, recipe=None, source="search", seed=None):
+    def add(self, code, *, d, proved=True, recipe=None, source="search", seed=None, **extra):
         self.added.append((code.n, code.k, d, source, seed))
         return len(self.added)
 

@@ -124,14 +124,15 @@ def run(args) -> int:
             if entry is not None:
                 start.append(entry.code)
 
-        if cat is not None and cat.readonly:
+        readonly = cat is not None and getattr(cat, "readonly", False)
+        if readonly:
             err_console.print(f"note: the catalog {cat.path} is read-only for this user; the "
                               "result will not be saved in it.", markup=False)
 
         def save(code, d, info):
             # a catalog entry is only a starting point: the search re-proves every code
             # it accepts, so a claimed entry never becomes its answer unproved
-            if cat is not None and not cat.readonly and info.get("exact"):
+            if cat is not None and not readonly and info.get("exact"):
                 cat.add(code, d=d, proved=True, recipe=list(code.recipe) or None,
                         source="search", seed=info.get("seed"),
                         proof={"method": f"search winner ({info.get('strategy')}), d proved "
