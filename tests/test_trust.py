@@ -399,8 +399,8 @@ def _run(prefix: list[str], *argv: str, cwd: Path) -> subprocess.CompletedProces
 
 
 def test_permissions_as_a_user_without_them(nobody_dir):
-    """Run as the user nobody: an unreadable input, and a read-only catalog in a read-only
-    folder (reading works; writing says why it cannot)."""
+    """Run as the user nobody: an unreadable input, a read-only catalog in a read-only
+    folder (reading works; writing says why it cannot), and build -o into that folder."""
     prefix, d = nobody_dir
     secret = d / "secret.txt"
     secret.write_text("1101\n0111\n")
@@ -428,3 +428,7 @@ def test_permissions_as_a_user_without_them(nobody_dir):
     h.chmod(0o644)
     run = _run(prefix, "catalog", "add", str(h), *cat, cwd=d)
     assert run.returncode == 2 and "read-only" in run.stderr and run.stderr.count("\n") == 1
+    run = _run(prefix, "build", "hamming", "3", "-o", str(folder / "h.txt"), cwd=d)
+    assert run.returncode == 2, run.stderr
+    assert run.stderr.count("\n") == 1 and "cannot write" in run.stderr
+    assert "Permission denied" in run.stderr
