@@ -137,37 +137,39 @@ def test_unexposed_lie_is_stored_as_a_claim_and_every_answer_says_so(cli, tmp_pa
         eid = entry.id
         assert not entry.proved and entry.provenance.kind == "checked"
         assert entry.weights is None  # claimed weights are not stored as if computed
-        assert c.best(n=64, k=32).provenance.kind == "checked"
-        assert c.best(n=64, k=32, claims=False) is None or c.best(
+        assert c.pick(n=64, k=32).provenance.kind == "checked"
+        assert c.pick(n=64, k=32, claims=False) is None or c.pick(
             n=64, k=32, claims=False).d < one
-        derived = c.best(n=63, k=31)
+        derived = c.pick(n=63, k=31)
         assert derived.derived_from and not derived.provenance.proved
-        row = {(r["n"], r["k"]): r for r in c.table([64])}[64, 32]
+        row = {(r["n"], r["k"]): r for r in c.distance_table([64])}[64, 32]
         assert row["d"] < one and row["claimed_d"] == one and not row["exact"]
+        (cell,) = c.length_table([32], [one])
+        assert cell["n"] is None and cell["claimed_n"] == 64 and cell["gap"] is None
         # the record it exports is a claim: d is null
         rec = C.entry_record(entry)
         assert rec["d"] is None and rec["provenance"]["kind"] == "checked"
     texts = []
     for argv in (["list", "--n", "64", "--k", "32"], ["show", str(eid)],
-                 ["best", "--n", "64", "--k", "32"],
-                 ["best", "--n", "63", "--k", "31", "--prove-time", "0"],
-                 ["table", "--n", "64"]):
+                 ["pick", "--n", "64", "--k", "32"],
+                 ["pick", "--n", "63", "--k", "31", "--prove-time", "0"],
+                 ["table", "--k", "32", "--d", str(one)]):
         assert cli(["catalog", *argv, *cat]) == 0, argv
         texts.append(capsys.readouterr().out)
-    for argv, text in zip(("list", "show", "best", "derived", "table"), texts, strict=True):
+    for argv, text in zip(("list", "show", "pick", "derived", "table"), texts, strict=True):
         if argv == "table":
             assert "only claimed" in text
             continue
         assert "claimed" in text, argv
         assert not says_proved(text), (argv, text)
-    assert cli(["catalog", "best", "--n", "64", "--k", "32", "--json", *cat]) == 0
+    assert cli(["catalog", "pick", "--n", "64", "--k", "32", "--json", *cat]) == 0
     j = json.loads(capsys.readouterr().out)
     assert j["proved"] is False and j["d"] is None and j["status"] == "checked"
     # a search that starts from the claim re-proves it: its answer is not the claim
     from gf2codes.search import search_distance
 
     with open_catalog(tmp_path / "c.sqlite") as c:
-        start = c.best(n=64, k=32).code
+        start = c.pick(n=64, k=32).code
     result = search_distance(64, 32, start=[start], max_steps=1, time_limit=5,
                              strategies=["random"])
     assert result.d_lower <= minimum_distance(result.code, time_limit=60).d
@@ -269,9 +271,10 @@ def test_show_and_table_on_absurd_values(cli, tmp_path, capsys):
     assert cli(["catalog", "show", "99999999999999999999999", *cat]) == 2
     err = capsys.readouterr().err
     assert err.count("\n") == 1 and "no entry with id 99999999999999999999999" in err
-    assert cli(["catalog", "table", "--n", "1-100000", *cat]) == 2
-    err = capsys.readouterr().err
-    assert err.count("\n") == 1 and "at most 64" in err
+    for argv in (["--k", "1-100000"], ["--d", "1-100000"]):
+        assert cli(["catalog", "table", *argv, *cat]) == 2
+        err = capsys.readouterr().err
+        assert err.count("\n") == 1 and "at most 32" in err
     assert cli(["catalog", "list", "--n", "99999999999999999999999", *cat]) == 0
 
 
@@ -280,7 +283,7 @@ def test_a_missing_catalog_is_not_created_by_reading(cli, tmp_path, capsys):
     assert cli(["catalog", "--catalog", str(missing), "info"]) == 2
     err = capsys.readouterr().err
     assert "no catalog there" in err and err.count("\n") == 1
-    assert cli(["catalog", "--catalog", str(missing), "best", "--k", "4", "--d", "3"]) == 0
+    assert cli(["catalog", "--catalog", str(missing), "pick", "--k", "4", "--d", "3"]) == 0
     out, err = capsys.readouterr()
     assert "[7, 4, 3]" in out and "shipped seed" in err
     assert not (tmp_path / "no").exists()
@@ -300,8 +303,8 @@ def test_read_only_catalog_simulated(cli, tmp_path, capsys, monkeypatch):
     monkeypatch.setattr(C.os, "access", lambda p, mode: False if mode & os.W_OK
                         else real(p, mode))
     cat = ["--catalog", str(path)]
-    for argv in (["list"], ["show", "1"], ["best", "--k", "12", "--d", "8"], ["info"],
-                 ["export"], ["table", "--n", "1-8"]):
+    for argv in (["list"], ["show", "1"], ["pick", "--k", "12", "--d", "8"], ["info"],
+                 ["export"], ["table", "--k", "1-8", "--d", "1-8"]):
         assert cli(["catalog", *argv, *cat]) == 0, argv
     capsys.readouterr()
     h = tmp_path / "h.txt"
@@ -419,7 +422,7 @@ def test_permissions_as_a_user_without_them(nobody_dir):
         extra.chmod(0o444)
     folder.chmod(0o555)
     cat = ["--catalog", str(path)]
-    for argv in (["list", "--n", "24"], ["best", "--k", "12", "--d", "8"]):
+    for argv in (["list", "--n", "24"], ["pick", "--k", "12", "--d", "8"]):
         run = _run(prefix, "catalog", *argv, *cat, cwd=d)
         assert run.returncode == 0, (argv, run.stderr)
         assert "[24, 12, 8]" in run.stdout
