@@ -33,8 +33,9 @@ record's claim passed the cheap checks of a trusted import, which prove nothing)
 ``claimed`` (stated by its source and not checked -- also every entry stored before
 schema 3, which cannot tell a trusted import from a proof). Only ``proved`` reads
 "proved" anywhere (:attr:`Entry.proved`); claims are never used to prove anything: a
-derived answer from a claimed entry is a claim, :meth:`Catalog.table` counts only
-proofs, :meth:`Catalog.best` prefers a proof to a claim of the same d, and a claimed
+derived answer from a claimed entry is a claim, :meth:`Catalog.length_table` and
+:meth:`Catalog.distance_table` count only proofs (the better claim stands beside),
+:meth:`Catalog.pick` prefers a proof to a claim of the same d, and a claimed
 entry's :attr:`Entry.code` carries no distance bounds (so a search re-proves it).
 :meth:`Catalog.prove_claims` proves claims on request and corrects false ones. When a
 proof meets an equivalent claimed entry it replaces the claim; a claim that contradicts
