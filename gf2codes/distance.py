@@ -61,6 +61,8 @@ __all__ = [
     "human_seconds",
     "estimate_work",
     "DEFAULT_MAX_WORK",
+    "route_estimates",
+    "dual_columns_seconds",
 ]
 
 #: ``progress(done, total, info)``: codewords examined so far, the current estimate
@@ -97,7 +99,8 @@ class DistanceResult:
     exact : bool
         True only when ``lower == upper``, that is, d is proved.
     method : str
-        ``"gray"``, ``"brouwer-zimmermann"`` or ``"isd"`` (upper bound only), or a
+        The route: ``"gray"``, ``"brouwer-zimmermann"``, ``"dual-columns"`` (fewest
+        parity-check columns summing to zero) or ``"isd"`` (upper bound only), or a
         ``+``-joined combination.
     codewords : int
         Codewords examined.
@@ -107,6 +110,10 @@ class DistanceResult:
         Why the computation ended before proving d: ``"time limit"``,
         ``"interrupted"``, ``"target met"`` (d >= target proved), ``"below target"``
         (a codeword lighter than the target was found), ``"upper bound only"``.
+    reason : str
+        Why this route was taken (for ``"auto"``: the estimates compared).
+    estimates : dict
+        Estimated seconds (one core) of each route that was considered.
     """
 
     lower: int
@@ -117,6 +124,8 @@ class DistanceResult:
     codewords: int = 0
     seconds: float = 0.0
     stopped: str | None = None
+    reason: str = ""
+    estimates: dict[str, float] = field(default_factory=dict, compare=False)
 
     @property
     def d(self) -> int | None:
@@ -535,16 +544,226 @@ def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
     return best.weight, "exact"
 
 
+# ------------------------------------------------------- dual-side (parity-check) route
+_BITMAP_BITS = 30  # a bitmap of 2^30 bits (128 MiB) at most; beyond, buckets of top bits
+# Measured rates (one core) of the dual-side scan, see scripts/bench_distance.py:
+# subsets enumerated and looked up per second, and bitmap bytes cleared per second.
+_RATE_DUAL = 4e8
+_RATE_CLEAR = 1e10
+
+
+def _parity_columns(code: Code) -> np.ndarray | None:
+    """The columns of a parity-check matrix, one ``uint64`` each (None when n - k > 64)."""
+    r = code.n - code.k
+    if r > 64:
+        return None
+    if r == 0:
+        return np.zeros(code.n, dtype=np.uint64)
+    H = np.asarray(code.H, dtype=np.uint64)
+    shifted = H << np.arange(r, dtype=np.uint64)[:, None]
+    return np.ascontiguousarray(np.bitwise_or.reduce(shifted, axis=0))
+
+
+def _dual_levels(divisor: int, start_lower: int, goal: int):
+    """Weights ``w`` to examine (multiples of the divisor) to prove ``d >= goal``."""
+    return [w for w in range(1, goal) if w % divisor == 0 and w >= start_lower]
+
+
+def _dual_layout(r: int) -> tuple[int, int]:
+    """(bits indexed by the bitmap, number of buckets of top bits) for ``r`` check bits."""
+    low = min(r, _BITMAP_BITS)
+    return low, 1 << (r - low)
+
+
+def dual_columns_seconds(n: int, k: int, goal: int, *, divisor: int = 1,
+                         start_lower: int = 1) -> float:
+    """Estimated seconds (one core) for the dual-side route to prove ``d >= goal`` on an
+    ``[n, k]`` code; ``inf`` when the route does not apply (``n - k > 64``)."""
+    r = n - k
+    if r > 64:
+        return math.inf
+    low, buckets = _dual_layout(r)
+    clear = buckets * max(8, (1 << low) // 8) / _RATE_CLEAR
+    total = 0.0
+    for w in _dual_levels(divisor, start_lower, goal):
+        j = w // 2
+        scans = math.comb(n, j) + (math.comb(n, w - j) if w - j != j else 0)
+        total += buckets * scans / _RATE_DUAL + clear
+    return total
+
+
+def _subset_of(cols: np.ndarray, j: int, syndrome: int) -> list[np.ndarray]:
+    from . import _dual_kernels
+
+    out = np.zeros((2, max(j, 1)), dtype=np.int64)
+    got = _dual_kernels.subsets_with_sum(cols, j, np.uint64(syndrome), out)
+    return [out[i, :j].copy() for i in range(got)]
+
+
+def _dual_witness(n: int, cols: np.ndarray, w: int, syndrome: int, probed: bool
+                  ) -> np.ndarray:
+    """The codeword (packed) behind a hit: the symmetric difference of two distinct
+    column subsets with equal sums (a nonempty zero-sum set of at most ``w`` columns)."""
+    j = w // 2
+    if probed:
+        first, second = _subset_of(cols, j, syndrome), _subset_of(cols, w - j, syndrome)
+        assert first and second, "the dual-side scan reported a hit that is not there"
+        a, b = first[0], second[0]
+    else:
+        found = _subset_of(cols, j, syndrome)
+        assert len(found) == 2, "the dual-side scan reported a collision that is not there"
+        a, b = found
+    word = np.zeros(n, dtype=np.uint8)
+    word[a] ^= 1
+    word[b] ^= 1
+    support = word.astype(bool)
+    assert support.any() and int(np.bitwise_xor.reduce(cols[support])) == 0, \
+        "dual-side witness is not a codeword"
+    return linalg.pack(word.reshape(1, -1))[0]
+
+
+def _dual_chunks(n: int, j: int) -> list[tuple[int, int]]:
+    """Ranges of the smallest index so that each holds about ``_CHUNK`` subsets."""
+    if j == 0:
+        return [(0, 1)]
+    chunks, lo, acc = [], 0, 0
+    for f in range(n - j + 1):
+        acc += math.comb(n - 1 - f, j - 1)
+        if acc >= _CHUNK:
+            chunks.append((lo, f + 1))
+            lo, acc = f + 1, 0
+    if lo < n - j + 1:
+        chunks.append((lo, n - j + 1))
+    return chunks
+
+
+def _dual_search(code: Code, clock: _Clock, best: _Best, target: int | None,
+                 start_lower: int) -> tuple[int, str | None]:
+    """The dual-side route: prove ``d >= w + 1`` by showing that no ``w`` columns of a
+    parity-check matrix sum to zero, for ``w = 1, 2, ...`` (meet in the middle: the sums
+    of ``floor(w/2)`` columns in a bitmap, those of ``ceil(w/2)`` looked up).
+
+    Returns (proved lower bound, reason for stopping or None).
+    """
+    from . import _dual_kernels
+
+    n, r = code.n, code.n - code.k
+    cols = _parity_columns(code)
+    assert cols is not None
+    divisor = code.weight_divisor
+    low, buckets = _dual_layout(r)
+    low_mask = np.uint64((1 << low) - 1)
+    hi_mask = np.uint64(((1 << r) - 1) ^ ((1 << low) - 1))
+    bitmap = np.zeros(max(1, (1 << low) // 64), dtype=np.uint64)
+    lower = start_lower
+
+    def settled() -> str | None:
+        if best.weight <= lower:
+            return "exact"
+        if target is not None and lower >= target:
+            return "target met"
+        if target is not None and best.weight < target:
+            return "below target"
+        return None
+
+    def scan(j: int, bucket: np.uint64, probe: bool) -> tuple[bool, int, bool]:
+        """(complete, syndrome of a hit or -1, time ran out)."""
+        for f_lo, f_hi in _dual_chunks(n, j):
+            visited, hit, s = _dual_kernels.syndrome_scan(cols, j, f_lo, f_hi, hi_mask,
+                                                          bucket, low_mask, bitmap, probe)
+            clock.tick(visited, lower, best.weight)
+            if hit:
+                return True, int(s), False
+            if clock.expired():
+                return False, -1, True
+        return True, -1, False
+
+    try:
+        goal = best.weight if target is None else min(best.weight, target)
+        for w in range(1, n + 1):
+            if settled():
+                break
+            if w % divisor or w < start_lower:
+                continue
+            goal = best.weight if target is None else min(best.weight, target)
+            clock.total = max(clock.done, int(_RATE_DUAL * dual_columns_seconds(
+                n, code.k, goal, divisor=divisor, start_lower=lower)) + clock.done)
+            j = w // 2
+            hit_word = None
+            for b in range(buckets):
+                bucket = np.uint64(b << low)
+                bitmap[:] = 0
+                done, s, late = scan(j, bucket, False)
+                if late:
+                    return lower, "time limit"
+                if s >= 0:
+                    hit_word = _dual_witness(n, cols, 2 * j, s, probed=False)
+                    break
+                if w - j != j:
+                    done, s, late = scan(w - j, bucket, True)
+                    if late:
+                        return lower, "time limit"
+                    if s >= 0:
+                        hit_word = _dual_witness(n, cols, w, s, probed=True)
+                        break
+            if hit_word is not None:
+                wt = int(sum(_kernels.popcount64(x) for x in hit_word))
+                best.offer(wt, hit_word)
+                # Every lighter weight was excluded before this level: wt == w.
+                assert wt == w, "dual-side route: a lighter codeword than proved possible"
+            else:
+                lower = max(lower, _round_up(w + 1, divisor))
+    except KeyboardInterrupt:
+        return lower, "interrupted"
+    reason = settled()
+    return (best.weight if reason == "exact" else lower), reason
+
+
 # ------------------------------------------------------------------------ public API
-def _choose_engine(code: Code, upper_guess: int, target: int | None) -> tuple[str, int]:
-    gray_cost = (1 << code.k) if code.k < 62 else _INF
-    if code.k <= 22:
-        return "gray", gray_cost
-    bz_cost = estimate_work(code, upper_guess, target=target)
-    # Gray-code codewords are cheaper (fewer overheads, no tables): compare times.
-    if gray_cost / _RATE_GRAY <= bz_cost / _RATE_BZ:
-        return "gray", gray_cost
-    return "brouwer-zimmermann", bz_cost
+_ROUTE_TITLES = {
+    "gray": "Gray-code enumeration of all 2^k codewords",
+    "brouwer-zimmermann": "Brouwer–Zimmermann on information sets",
+    "dual-columns": "fewest parity-check columns summing to zero",
+}
+
+
+def route_estimates(code: Code, upper_guess: int, target: int | None = None
+                    ) -> dict[str, float]:
+    """Estimated seconds (one core) of each exact route to prove d (or settle
+    ``d >= target``) when a codeword of weight ``upper_guess`` is known.
+
+    Routes that do not apply (the dual-side route needs ``n - k <= 64``) are absent.
+    """
+    goal = upper_guess if target is None else min(upper_guess, target)
+    out: dict[str, float] = {}
+    out["gray"] = (2.0 ** code.k) / _RATE_GRAY
+    if code.k > 22:
+        out["brouwer-zimmermann"] = estimate_work(code, upper_guess, target=target) / _RATE_BZ
+    if code.n - code.k <= 64:
+        div = code.weight_divisor
+        out["dual-columns"] = dual_columns_seconds(code.n, code.k, goal, divisor=div,
+                                                   start_lower=div)
+    return out
+
+
+def _choose_engine(code: Code, upper_guess: int, target: int | None
+                   ) -> tuple[str, dict[str, float], str]:
+    """The cheapest route by estimated time, all estimates, and the reason in words."""
+    est = route_estimates(code, upper_guess, target)
+    if code.k <= 22:  # microseconds: not worth a parity-check matrix (the search hot path)
+        return "gray", est, f"2^{code.k} codewords take about {human_seconds(est['gray'])}"
+    engine = min(est, key=lambda e: (est[e], e != "gray"))
+    others = ", ".join(f"{_ROUTE_TITLES[e]} ~{_fmt_seconds(est[e])}"
+                       for e in sorted(est, key=est.__getitem__) if e != engine)
+    return engine, est, f"cheapest estimate, ~{_fmt_seconds(est[engine])} (against {others})"
+
+
+def _fmt_seconds(s: float) -> str:
+    if s < 1e-3:
+        return "<1 ms"
+    if s < 120:
+        return f"{s:.2g} s"
+    return human_seconds(s)
 
 
 def minimum_distance(
@@ -571,8 +790,10 @@ def minimum_distance(
     target : int, optional
         Only settle whether ``d >= target``: stop at the first codeword lighter than
         ``target`` or when the lower bound reaches it.
-    method : {"auto", "gray", "brouwer-zimmermann"}
-        The exact engine; ``"auto"`` picks the cheaper.
+    method : {"auto", "gray", "brouwer-zimmermann", "dual-columns"}
+        The exact route; ``"auto"`` estimates the time of each and takes the cheapest
+        (the result names it and says why). ``"dual-columns"`` (for ``n - k <= 64``)
+        searches for the fewest columns of a parity-check matrix that sum to zero.
     max_work : int or None
         Without a time limit, refuse (raise :class:`TooExpensiveError`) when the
         estimated number of codewords exceeds this. ``None`` never refuses.
@@ -611,9 +832,15 @@ def minimum_distance(
         raise ParameterError(f"Argument 'code' must be a Code, not {type(code).__name__}.")
     if target is not None:
         target = check_int("target", target, minimum=1)
-    if method not in ("auto", "gray", "brouwer-zimmermann"):
+    if method not in ("auto", "gray", "brouwer-zimmermann", "dual-columns"):
         raise ParameterError(
-            f"Argument 'method' must be one of auto, gray, brouwer-zimmermann, not {method!r}."
+            "Argument 'method' must be one of auto, gray, brouwer-zimmermann, dual-columns, "
+            f"not {method!r}."
+        )
+    if method == "dual-columns" and code.n - code.k > 64:
+        raise ParameterError(
+            "Argument 'method' must not be dual-columns for a code with n - k = "
+            f"{code.n - code.k} > 64 check bits, not {method!r}."
         )
     workers = (os.cpu_count() or 1) if workers is None else check_int("workers", workers,
                                                                      minimum=1)
@@ -635,16 +862,27 @@ def minimum_distance(
 
     engine = method
     if engine == "auto":
-        engine, cost = _choose_engine(code, best.weight, target)
+        engine, estimates, reason = _choose_engine(code, best.weight, target)
     else:
-        cost = (1 << code.k) if engine == "gray" else estimate_work(code, best.weight,
-                                                                    target=target)
+        estimates, reason = {}, "asked for"
+        if engine == "gray":
+            estimates["gray"] = (2.0 ** code.k) / _RATE_GRAY
+        elif engine == "brouwer-zimmermann":
+            estimates[engine] = estimate_work(code, best.weight, target=target) / _RATE_BZ
+        else:
+            estimates = {engine: route_estimates(code, best.weight, target)[engine]}
+    seconds = estimates[engine]
+    # Work in codewords; for the dual-side route, the codewords of the same time.
+    if engine == "gray":
+        cost = (1 << code.k) if code.k < 62 else _INF
+    else:
+        cost = int(min(seconds * _RATE_BZ, _INF))
     if time_limit is None and max_work is not None and cost > max_work:
-        seconds = cost / (_RATE_GRAY if engine == "gray" else _RATE_BZ)
         raise TooExpensiveError(
             f"proving the minimum distance of this [{code.n},{code.k}] code needs about "
-            f"{cost:.2g} codewords (roughly {human_seconds(seconds)} on one core); pass "
-            "time_limit= for a proved interval, or use quick_distance() for a fast one.",
+            f"{cost:.2g} codewords or their equivalent (roughly {human_seconds(seconds)} on "
+            "one core); pass time_limit= for a proved interval, or use quick_distance() for "
+            "a fast one.",
             work=cost, seconds=seconds,
         )
     clock.total = cost
@@ -663,15 +901,19 @@ def minimum_distance(
             lower, stopped = start_lower, "below target"
         else:
             lower, stopped = start_lower, "interrupted" if interrupted else "time limit"
+    elif engine == "dual-columns":
+        lower, why = _dual_search(code, clock, best, target, start_lower)
+        stopped = None if why == "exact" else why
     else:
-        lower, reason = _bz_search(code, clock, best, target, start_lower, workers, executor)
-        stopped = None if reason == "exact" else reason
+        lower, why = _bz_search(code, clock, best, target, start_lower, workers, executor)
+        stopped = None if why == "exact" else why
     lower = min(lower, best.weight)
     _check_claims(code, lower, best.weight)
     return DistanceResult(
         lower=int(lower), upper=int(best.weight), witness=best.witness(),
         exact=lower == best.weight, method=engine, codewords=clock.done + codewords_pre,
         seconds=clock.elapsed(), stopped=None if lower == best.weight else stopped,
+        reason=reason, estimates={e: float(v) for e, v in estimates.items()},
     )
 
 

@@ -1,0 +1,160 @@
+"""Compiled kernels of the dual-side (parity-check) distance route.
+
+The columns of a parity-check matrix ``H`` with ``r = n - k <= 64`` rows are packed
+one per ``uint64`` (bit ``i`` of column ``j`` is ``H[i, j]``). A codeword of weight
+``w`` is a set of ``w`` columns summing to zero; split into its first ``floor(w/2)``
+and its last ``ceil(w/2)`` columns, it is a pair of distinct column subsets with
+equal sums. These kernels enumerate the sums of every ``j``-subset of the columns
+(lexicographic order, one XOR per subset in the innermost loop) and look each sum up
+in a bitmap indexed by the syndrome itself — exact, with no hashing: when ``2^r``
+bits do not fit, the syndromes are processed in buckets of equal top bits, one pass
+per bucket, the bitmap indexed by the remaining low bits.
+
+Declared like the kernels of :mod:`gf2codes._kernels`: explicit signatures,
+``cache=True``, ``nogil=True``, arrays and integers only, no globals.
+"""
+
+from __future__ import annotations
+
+import numba as nb
+import numpy as np
+from numba import types
+
+__all__ = ["syndrome_scan", "subsets_with_sum"]
+
+_u64 = types.uint64
+_i64 = types.int64
+
+
+@nb.njit(cache=True, inline="always")
+def _visit(s, hi_mask, bucket, low_mask, bitmap, probe):  # pragma: no cover - compiled
+    """Look ``s`` up in the bitmap (and mark it unless ``probe``); True on a hit."""
+    if (s & hi_mask) != bucket:
+        return False
+    idx = s & low_mask
+    wd = idx >> np.uint64(6)
+    bit = np.uint64(1) << (idx & np.uint64(63))
+    if bitmap[wd] & bit:
+        return True
+    if not probe:
+        bitmap[wd] |= bit
+    return False
+
+
+@nb.njit(
+    types.Tuple((_i64, types.boolean, _u64))(
+        _u64[::1], _i64, _i64, _i64, _u64, _u64, _u64, _u64[::1], types.boolean
+    ),
+    cache=True,
+    nogil=True,
+)
+def syndrome_scan(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
+                  probe):  # pragma: no cover - compiled
+    """Sums of the ``j``-subsets of ``cols`` whose smallest index ``f`` is in
+    ``[f_lo, f_hi)``, looked up in ``bitmap``.
+
+    Only sums ``s`` with ``s & hi_mask == bucket`` are considered; bit ``s & low_mask``
+    of ``bitmap`` stands for ``s``. With ``probe`` false every such sum is marked and
+    the scan stops at the first sum already marked (two distinct subsets, or a subset
+    and one marked earlier, with equal sums); with ``probe`` true nothing is marked
+    and the scan stops at the first sum that is marked. ``j == 0`` is the empty set
+    (sum 0), visited when ``f_lo == 0``.
+
+    Returns ``(subsets visited, hit, syndrome of the hit)``.
+    """
+    n = cols.shape[0]
+    zero = np.uint64(0)
+    if j == 0:
+        if f_lo > 0:
+            return 0, False, zero
+        return 1, _visit(zero, hi_mask, bucket, low_mask, bitmap, probe), zero
+    visited = np.int64(0)
+    c = np.zeros(max(j, 1), dtype=np.int64)
+    part = np.zeros(j + 1, dtype=np.uint64)
+    for f in range(f_lo, min(f_hi, n - j + 1)):
+        if j == 1:
+            visited += 1
+            s = cols[f]
+            if _visit(s, hi_mask, bucket, low_mask, bitmap, probe):
+                return visited, True, s
+            continue
+        p = j - 1  # prefix c[0..p-1], c[0] = f; the last index runs in the inner loop
+        c[0] = f
+        part[1] = cols[f]
+        for q in range(1, p):
+            c[q] = f + q
+            part[q + 1] = part[q] ^ cols[c[q]]
+        while True:
+            base = part[p]
+            start = c[p - 1] + 1
+            # The innermost loop, written out in two passes: first whether any sum is
+            # marked (no early exit, so the loads overlap and the loop vectorises),
+            # then, when marking, check-and-set one by one.
+            any_hit = np.uint64(0)
+            for i in range(start, n):
+                s = base ^ cols[i]
+                idx = s & low_mask
+                inb = np.uint64((s & hi_mask) == bucket)
+                any_hit |= (bitmap[idx >> np.uint64(6)] >> (idx & np.uint64(63))) & inb
+            hit = -1
+            if any_hit or not probe:
+                for i in range(start, n):
+                    s = base ^ cols[i]
+                    if (s & hi_mask) == bucket:
+                        idx = s & low_mask
+                        wd = idx >> np.uint64(6)
+                        bit = np.uint64(1) << (idx & np.uint64(63))
+                        old = bitmap[wd]
+                        if old & bit:
+                            hit = i
+                            break
+                        if not probe:
+                            bitmap[wd] = old | bit
+            if hit >= 0:
+                return visited + (hit - start + 1), True, base ^ cols[hit]
+            visited += n - start
+            q = p - 1
+            while q >= 1 and c[q] == n - j + q:
+                q -= 1
+            if q < 1:
+                break
+            c[q] += 1
+            part[q + 1] = part[q] ^ cols[c[q]]
+            for t in range(q + 1, p):
+                c[t] = c[t - 1] + 1
+                part[t + 1] = part[t] ^ cols[c[t]]
+    return visited, False, zero
+
+
+@nb.njit(_i64(_u64[::1], _i64, _u64, _i64[:, ::1]), cache=True, nogil=True)
+def subsets_with_sum(cols, j, target, out):  # pragma: no cover - compiled
+    """Write into the rows of ``out`` (shape ``(m, max(j, 1))``) up to ``m`` distinct
+    ``j``-subsets of ``cols`` whose sum is ``target``; return how many were written."""
+    n = cols.shape[0]
+    m = out.shape[0]
+    if j == 0:
+        return 1 if target == 0 and m > 0 else 0
+    if j > n:
+        return 0
+    found = 0
+    c = np.arange(j)
+    part = np.zeros(j + 1, dtype=np.uint64)
+    for q in range(j):
+        part[q + 1] = part[q] ^ cols[c[q]]
+    while True:
+        if part[j] == target:
+            for q in range(j):
+                out[found, q] = c[q]
+            found += 1
+            if found == m:
+                return found
+        q = j - 1
+        while q >= 0 and c[q] == n - j + q:
+            q -= 1
+        if q < 0:
+            return found
+        c[q] += 1
+        part[q + 1] = part[q] ^ cols[c[q]]
+        for t in range(q + 1, j):
+            c[t] = c[t - 1] + 1
+            part[t + 1] = part[t] ^ cols[c[t]]

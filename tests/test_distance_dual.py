@@ -1,0 +1,171 @@
+"""The dual-side route (fewest parity-check columns summing to zero) against brute
+force and against the primal engines, its kernels against plain Python, and the
+route choice."""
+
+from __future__ import annotations
+
+import itertools
+
+import numpy as np
+import pytest
+from hypothesis import assume, given, settings
+from hypothesis import strategies as st
+
+from gf2codes import _dual_kernels, distance, families
+from gf2codes._reference import brute_distance
+from gf2codes.code import Code
+from gf2codes.distance import minimum_distance, route_estimates
+from gf2codes.exceptions import ParameterError
+
+from helpers import random_code_matrix
+
+
+def _check(C: Code, r, d: int) -> None:
+    assert r.exact and r.d == d == r.lower == r.upper
+    assert r.witness.sum() == d and C.contains(r.witness)
+
+
+def _shaped_code(seed: int) -> Code:
+    """Random small codes with the awkward shapes mixed in: zero columns, repeated
+    columns, k = 1, n - k = 0 or 1, d = 1 or 2."""
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(1, 19))
+    shape = int(rng.integers(0, 6))
+    if shape == 0:
+        k = 1
+    elif shape == 1:
+        k = n  # n - k = 0: the full space, d = 1
+    elif shape == 2:
+        k = max(1, n - 1)  # n - k = 1
+    else:
+        k = int(rng.integers(1, n + 1))
+    M = random_code_matrix(rng, n, k, density=float(rng.uniform(0.2, 0.8)))
+    if shape == 3 and n > 1:
+        M[:, int(rng.integers(n))] = 0  # a zero column: d = 1
+    if shape == 4 and n > 1:
+        a, b = rng.choice(n, size=2, replace=False)
+        M[:, b] = M[:, a]  # a repeated column: d <= 2
+    assume(M.any())
+    return Code(M)
+
+
+@given(st.integers(0, 2**32 - 1))
+def test_dual_route_equals_brute_force(seed):
+    C = _shaped_code(seed)
+    d = brute_distance(C.G)  # computed by brute force in this test
+    _check(C, minimum_distance(C, method="dual-columns"), d)
+
+
+@settings(max_examples=40)
+@given(st.integers(0, 2**32 - 1))
+def test_dual_route_equals_primal_engine_beyond_brute_force(seed):
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(30, 70))
+    r = int(rng.integers(1, 19))
+    M = random_code_matrix(rng, n, n - r, density=float(rng.uniform(0.2, 0.6)))
+    C = Code(M)
+    primal = minimum_distance(C, method="brouwer-zimmermann", max_work=None)
+    _check(C, minimum_distance(C, method="dual-columns"), primal.d)
+
+
+@settings(max_examples=25)
+@given(st.integers(0, 2**32 - 1), st.integers(1, 8))
+def test_dual_route_target_test(seed, target):
+    C = _shaped_code(seed)
+    d = brute_distance(C.G)
+    r = minimum_distance(C, method="dual-columns", target=target)
+    assert r.at_least(target) == (d >= target)
+    assert r.lower <= d <= r.upper and C.contains(r.witness) and r.witness.sum() == r.upper
+
+
+def test_dual_route_with_buckets(monkeypatch):
+    """A bitmap smaller than 2^(n-k) bits: the syndromes go in buckets of top bits."""
+    monkeypatch.setattr(distance, "_BITMAP_BITS", 3)
+    rng = np.random.default_rng(11)
+    for _ in range(20):
+        n = int(rng.integers(12, 30))
+        C = Code(random_code_matrix(rng, n, n - int(rng.integers(6, 12))))
+        _check(C, minimum_distance(C, method="dual-columns"), brute_distance(C.G)
+               if C.k <= 16 else minimum_distance(C, method="gray").d)
+
+
+def test_published_high_rate_codes():
+    # Hamming [15,11,3] and [31,26,3]; extended Hamming [32,26,4]; BCH [31,21,5], [63,51,5]
+    # (MacWilliams & Sloane 1977, ch. 1 section 7 and ch. 9 section 1, the table of BCH
+    # codes, figure 9.1).
+    cases = [(families.hamming(4), 3), (families.hamming(5), 3),
+             (families.bch(31, 5), 5), (families.bch(63, 5), 5)]
+    for C, d in cases:
+        _check(C, minimum_distance(C, method="dual-columns"), d)
+        r = minimum_distance(C)
+        assert r.d == d
+
+
+def test_auto_takes_the_dual_route_for_high_rate_and_says_why():
+    C = families.bch(127, 7)  # [127, 106, 7], MacWilliams & Sloane 1977, figure 9.1
+    r = minimum_distance(C)
+    assert r.method == "dual-columns" and r.d == 7
+    assert "cheapest estimate" in r.reason
+    assert set(r.estimates) == {"gray", "brouwer-zimmermann", "dual-columns"}
+    assert r.estimates["dual-columns"] == min(r.estimates.values())
+
+
+def test_route_estimates_skip_what_does_not_apply():
+    rng = np.random.default_rng(5)
+    C = Code(random_code_matrix(rng, 100, 30))  # n - k = 70 > 64
+    assert "dual-columns" not in route_estimates(C, 20)
+    with pytest.raises(ParameterError, match="Argument 'method' must not be dual-columns"):
+        minimum_distance(C, method="dual-columns")
+
+
+def test_dual_time_limit_gives_a_valid_interval():
+    C = families.bch(255, 9)  # [255, 223]: levels of 10^8 subsets and more
+    r = minimum_distance(C, method="dual-columns", time_limit=0.3)
+    assert r.lower <= r.upper and C.contains(r.witness) and r.witness.sum() == r.upper
+    assert r.exact or r.stopped == "time limit"
+
+
+@given(st.integers(0, 2**32 - 1), st.integers(0, 4), st.booleans())
+def test_syndrome_scan_against_python(seed, j, probe):
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(1, 12))
+    r = int(rng.integers(1, 8))
+    cols = rng.integers(0, 1 << r, size=n, dtype=np.uint64)
+    marked = set(int(x) for x in rng.integers(0, 1 << r, size=3))
+    bitmap = np.zeros(4, dtype=np.uint64)
+    for s in marked:
+        bitmap[s >> 6] |= np.uint64(1) << np.uint64(s & 63)
+    low = np.uint64((1 << r) - 1)
+    visited, hit, s = _dual_kernels.syndrome_scan(cols, j, 0, n, np.uint64(0), np.uint64(0),
+                                                  low, bitmap, probe)
+    # plain Python: the same subsets in lexicographic order
+    seen = set(marked)
+    expect = None
+    count = 0
+    for sub in itertools.combinations(range(n), j):
+        count += 1
+        v = 0
+        for i in sub:
+            v ^= int(cols[i])
+        if v in seen:
+            expect = v
+            break
+        if not probe:
+            seen.add(v)
+    assert hit == (expect is not None)
+    if hit:
+        assert int(s) == expect and visited == count
+    else:
+        assert visited == count
+
+
+def test_subsets_with_sum_against_itertools():
+    rng = np.random.default_rng(3)
+    cols = rng.integers(0, 16, size=9, dtype=np.uint64)
+    for j in range(0, 5):
+        for target in range(16):
+            out = np.zeros((200, max(j, 1)), dtype=np.int64)
+            got = _dual_kernels.subsets_with_sum(cols, j, np.uint64(target), out)
+            expect = [sub for sub in itertools.combinations(range(9), j)
+                      if np.bitwise_xor.reduce(cols[list(sub)], initial=np.uint64(0)) == target]
+            assert [tuple(out[i, :j]) for i in range(got)] == expect
