@@ -211,3 +211,20 @@ def test_plot_takes_one_input(tmp_path, hamming74):
         write_code(hamming74, tmp_path / f"h{i}.txt")
     proc = _run("verify", str(tmp_path), "--plot", str(tmp_path / "w.png"))
     assert proc.returncode == 2 and "--plot" in proc.stderr
+
+
+def test_the_route_and_its_reason_are_named(tmp_path, capsys):
+    from gf2codes import families
+
+    f = tmp_path / "bch127_106.txt"
+    write_code(families.bch(127, 7), f)  # [127, 106, 7]: MacWilliams & Sloane, fig. 9.1
+    out = _json(capsys, str(f), "--time-limit", "60")
+    assert out["d"] == 7 and out["d_method"].startswith("dual-columns")
+    assert out["d_route_reason"].startswith("cheapest estimate")
+    est = out["d_route_estimates_s"]
+    assert set(est) == {"gray", "brouwer-zimmermann", "dual-columns"}
+    assert est["dual-columns"] == min(est.values())
+    assert main(["verify", str(f), "--time-limit", "60"]) == 0
+    text = capsys.readouterr().out
+    assert "route" in text and "dual-columns: cheapest estimate" in text
+    assert "column subsets" in text

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import dataclasses
 import os
 import time
 from typing import Any
@@ -222,6 +223,8 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
         "d_upper": res.upper,
         "d_exact": res.exact,
         "d_method": res.method,
+        "d_route_reason": res.reason,
+        "d_route_estimates_s": {e: float(f"{v:.3g}") for e, v in res.estimates.items()},
         "codewords_examined": res.codewords,
         "seconds": round(time.perf_counter() - start, 4),
         "stopped": res.stopped,
@@ -264,12 +267,14 @@ def _exact_from_distribution(code: Code, res: DistanceResult, d: int, seed: int
     """Turn an interval into a proof using the exact weight distribution: find a
     codeword of weight ``d`` (a target run stops at once when one exists)."""
     if res.upper == d:
-        return DistanceResult(d, d, res.witness, True, res.method + "+weights",
-                              res.codewords, res.seconds, None)
+        return dataclasses.replace(res, lower=d, exact=True, method=res.method + "+weights",
+                                   stopped=None)
     r = minimum_distance(code, target=d + 1, max_work=None, seed=seed)
     assert r.upper == d, "weight distribution and enumeration disagree"
-    return DistanceResult(d, d, r.witness, True, res.method + "+weights",
-                          res.codewords + r.codewords, res.seconds + r.seconds, None)
+    return dataclasses.replace(res, lower=d, upper=d, witness=r.witness, exact=True,
+                               method=res.method + "+weights",
+                               codewords=res.codewords + r.codewords,
+                               seconds=res.seconds + r.seconds, stopped=None)
 
 
 def _verdict(code: Code, res: DistanceResult) -> dict[str, Any]:
@@ -316,6 +321,7 @@ _METHOD_WORDS = {
     "gray": "Gray-code enumeration of every codeword",
     "brouwer-zimmermann": "Brouwer–Zimmermann enumeration",
     "isd": "information-set decoding",
+    "dual-columns": "search for the fewest parity-check columns summing to zero",
 }
 
 
@@ -336,6 +342,12 @@ def _first_line(info: dict[str, Any], code: Code, source: str | None) -> str:
     return f"{source or code.name or 'code'}  {verdict}  n={n} k={k} {d_text}"
 
 
+def _unit(info: dict[str, Any]) -> str:
+    """What ``codewords_examined`` counts: column subsets on the dual-side route."""
+    return "column subsets" if info["d_method"].startswith("dual-columns") else "codewords"
+
+
+
 def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
     n, k = info["n"], info["k"]
     if info["dropped_rows"]:
@@ -352,12 +364,15 @@ def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
     if info["d_exact"]:
         t.add_row("minimum distance d",
                   f"{info['d']}   proved by {_method_words(info['d_method'])} "
-                  f"({info['codewords_examined']:,} codewords, {info['seconds']:.2f} s)")
+                  f"({info['codewords_examined']:,} {_unit(info)}, {info['seconds']:.2f} s)")
     else:
         t.add_row("minimum distance d",
                   f"[bold red]NOT PROVED[/]: {info['d_lower']} ≤ d ≤ {info['d_upper']} "
-                  f"({info['stopped']}; {info['codewords_examined']:,} codewords, "
+                  f"({info['stopped']}; {info['codewords_examined']:,} {_unit(info)}, "
                   f"{info['seconds']:.2f} s)")
+    if info.get("d_route_reason"):
+        t.add_row("route", escape(f"{info['d_method'].split('+')[0]}: "
+                                  f"{info['d_route_reason']}"))
     if "target_d" in info:
         verdict = {True: "yes, proved", False: "no: a lighter codeword exists",
                    None: "undecided within the time limit"}[info["meets_target"]]
