@@ -16,36 +16,15 @@ Declared like the kernels of :mod:`gf2codes._kernels`: explicit signatures,
 
 from __future__ import annotations
 
-import numba as nb
 import numpy as np
-from numba import types
+
+from ._jit import kernel
 
 __all__ = ["syndrome_scan", "subsets_with_sum"]
 
-_u64 = types.uint64
-_i64 = types.int64
-
-
-@nb.njit(cache=True, inline="always")
-def _visit(s, hi_mask, bucket, low_mask, bitmap, probe):  # pragma: no cover - compiled
-    """Look ``s`` up in the bitmap (and mark it unless ``probe``); True on a hit."""
-    if (s & hi_mask) != bucket:
-        return False
-    idx = s & low_mask
-    wd = idx >> np.uint64(6)
-    bit = np.uint64(1) << (idx & np.uint64(63))
-    if bitmap[wd] & bit:
-        return True
-    if not probe:
-        bitmap[wd] |= bit
-    return False
-
-
-@nb.njit(
-    types.Tuple((_i64, types.boolean, _u64))(
-        _u64[::1], _i64, _i64, _i64, _u64, _u64, _u64, _u64[::1], types.boolean
-    ),
-    cache=True,
+@kernel(
+    "Tuple((int64, boolean, uint64))(uint64[::1], int64, int64, int64, uint64, uint64, "
+    "uint64, uint64[::1], boolean)",
     nogil=True,
 )
 def syndrome_scan(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
@@ -67,7 +46,13 @@ def syndrome_scan(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
     if j == 0:
         if f_lo > 0:
             return 0, False, zero
-        return 1, _visit(zero, hi_mask, bucket, low_mask, bitmap, probe), zero
+        if (zero & hi_mask) != bucket:
+            return 1, False, zero
+        if bitmap[0] & np.uint64(1):
+            return 1, True, zero
+        if not probe:
+            bitmap[0] |= np.uint64(1)
+        return 1, False, zero
     visited = np.int64(0)
     c = np.zeros(max(j, 1), dtype=np.int64)
     part = np.zeros(j + 1, dtype=np.uint64)
@@ -75,8 +60,14 @@ def syndrome_scan(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
         if j == 1:
             visited += 1
             s = cols[f]
-            if _visit(s, hi_mask, bucket, low_mask, bitmap, probe):
-                return visited, True, s
+            if (s & hi_mask) == bucket:
+                idx = s & low_mask
+                wd = idx >> np.uint64(6)
+                bit = np.uint64(1) << (idx & np.uint64(63))
+                if bitmap[wd] & bit:
+                    return visited, True, s
+                if not probe:
+                    bitmap[wd] |= bit
             continue
         p = j - 1  # prefix c[0..p-1], c[0] = f; the last index runs in the inner loop
         c[0] = f
@@ -126,7 +117,7 @@ def syndrome_scan(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
     return visited, False, zero
 
 
-@nb.njit(_i64(_u64[::1], _i64, _u64, _i64[:, ::1]), cache=True, nogil=True)
+@kernel("int64(uint64[::1], int64, uint64, int64[:, ::1])", nogil=True)
 def subsets_with_sum(cols, j, target, out):  # pragma: no cover - compiled
     """Write into the rows of ``out`` (shape ``(m, max(j, 1))``) up to ``m`` distinct
     ``j``-subsets of ``cols`` whose sum is ``target``; return how many were written."""

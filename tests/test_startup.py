@@ -20,7 +20,8 @@ ROOT = Path(__file__).resolve().parents[1]
 HEAVY = ("numba", "llvmlite", "scipy", "galois", "networkx", "matplotlib", "dask")
 
 #: Every kernel module, so a probe can report which kernels a command compiled or loaded.
-KERNEL_MODULES = ("gf2codes._kernels", "gf2codes.search._kernels", "gf2codes._decoding_kernels")
+KERNEL_MODULES = ("gf2codes._kernels", "gf2codes.search._kernels", "gf2codes._decoding_kernels",
+                  "gf2codes._dual_kernels")
 
 _PROBE = """
 import contextlib, io, json, sys
