@@ -114,6 +114,10 @@ class DistanceResult:
         Why this route was taken (for ``"auto"``: the estimates compared).
     estimates : dict
         Estimated seconds (one core) of each route that was considered.
+    information_sets : tuple of dict
+        Brouwer–Zimmermann only: per information set its ``rank``, ``levels_done`` and
+        the lower-bound ``contribution`` it proved (their sum, rounded up to the
+        weight divisor, is the proved lower bound).
     """
 
     lower: int
@@ -126,6 +130,7 @@ class DistanceResult:
     stopped: str | None = None
     reason: str = ""
     estimates: dict[str, float] = field(default_factory=dict, compare=False)
+    information_sets: tuple[dict, ...] = field(default=(), compare=False)
 
     @property
     def d(self) -> int | None:
@@ -488,9 +493,19 @@ def _enumerate_level_remote(code: Code, mats: list[_InfoSetMatrix], j: int, w: i
 
 
 def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
-               start_lower: int, workers: int, executor=None) -> tuple[int, str | None]:
-    """Run Brouwer–Zimmermann; return (proved lower bound, reason for stopping or None)."""
+               start_lower: int, workers: int, executor=None,
+               sets_out: list[dict] | None = None) -> tuple[int, str | None]:
+    """Run Brouwer–Zimmermann; return (proved lower bound, reason for stopping or None).
+
+    ``sets_out`` receives one dict per information set, kept current as levels
+    complete: its ``rank`` (new positions), ``levels_done`` (every combination of at most
+    that many rows was enumerated) and ``contribution`` (the proved weight that a
+    codeword not yet seen has on its new positions).
+    """
     mats = _information_sets(code)
+    if sets_out is not None:
+        sets_out[:] = [{"rank": m.rank, "levels_done": 0, "contribution": m.contribution(0)}
+                       for m in mats]
     divisor = code.weight_divisor
     lower = max(start_lower, _round_up(sum(m.contribution(0) for m in mats) or 1, divisor))
     sh = _Shared(clock, best)
@@ -531,6 +546,8 @@ def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
             if not complete:
                 return lower, "time limit"
             lower = max(lower, lower_after)
+            if sets_out is not None:
+                sets_out[j].update(levels_done=w, contribution=mats[j].contribution(w))
             reason = settled()
             if reason:
                 return lower, reason
@@ -887,6 +904,7 @@ def minimum_distance(
         )
     clock.total = cost
     stopped: str | None
+    info_sets: list[dict] = []
     if engine == "gray":
         stop_at = start_lower if target is None else max(start_lower, target - 1)
         try:
@@ -905,7 +923,8 @@ def minimum_distance(
         lower, why = _dual_search(code, clock, best, target, start_lower)
         stopped = None if why == "exact" else why
     else:
-        lower, why = _bz_search(code, clock, best, target, start_lower, workers, executor)
+        lower, why = _bz_search(code, clock, best, target, start_lower, workers, executor,
+                                sets_out=info_sets)
         stopped = None if why == "exact" else why
     lower = min(lower, best.weight)
     _check_claims(code, lower, best.weight)
@@ -914,6 +933,7 @@ def minimum_distance(
         exact=lower == best.weight, method=engine, codewords=clock.done + codewords_pre,
         seconds=clock.elapsed(), stopped=None if lower == best.weight else stopped,
         reason=reason, estimates={e: float(v) for e, v in estimates.items()},
+        information_sets=tuple(dict(x) for x in info_sets),
     )
 
 

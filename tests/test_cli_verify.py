@@ -224,7 +224,20 @@ def test_the_route_and_its_reason_are_named(tmp_path, capsys):
     est = out["d_route_estimates_s"]
     assert set(est) == {"gray", "brouwer-zimmermann", "dual-columns"}
     assert est["dual-columns"] == min(est.values())
+    assert out["d_information_sets"] == []  # none: the dual-side route used no sets
     assert main(["verify", str(f), "--time-limit", "60"]) == 0
     text = capsys.readouterr().out
     assert "route" in text and "dual-columns: cheapest estimate" in text
     assert "column subsets" in text
+
+
+def test_information_sets_in_json(tmp_path, capsys, golay24):
+    f = tmp_path / "g24.txt"
+    write_code(golay24, f)
+    out = _json(capsys, str(f))
+    if out["d_method"].startswith("brouwer-zimmermann"):
+        sets = out["d_information_sets"]
+        assert sets and sets[0]["rank"] == 12
+        assert all(set(s) == {"rank", "levels_done", "contribution"} for s in sets)
+    else:  # Gray code: no information sets
+        assert out["d_information_sets"] == []

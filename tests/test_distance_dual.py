@@ -169,3 +169,25 @@ def test_subsets_with_sum_against_itertools():
             expect = [sub for sub in itertools.combinations(range(9), j)
                       if np.bitwise_xor.reduce(cols[list(sub)], initial=np.uint64(0)) == target]
             assert [tuple(out[i, :j]) for i in range(got)] == expect
+
+
+@settings(max_examples=30)
+@given(st.integers(0, 2**32 - 1))
+def test_information_sets_are_reported_and_consistent(seed):
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(10, 40))
+    k = int(rng.integers(2, min(n, 14) + 1))
+    M = random_code_matrix(rng, n, k)
+    assume(M.any())
+    C = Code(M)
+    r = minimum_distance(C, method="brouwer-zimmermann")
+    assert r.d == brute_distance(C.G)  # computed by brute force in this test
+    sets = r.information_sets
+    assert sets and sets[0]["rank"] == C.k and sum(s["rank"] for s in sets) <= C.n
+    for s in sets:
+        assert s["contribution"] == max(0, s["levels_done"] + 1 - (C.k - s["rank"]))
+    # the proof: the sum of contributions reaches the distance unless every
+    # combination of the first (full-rank) matrix was enumerated
+    div = C.weight_divisor
+    total = -(-sum(s["contribution"] for s in sets) // div) * div
+    assert total >= r.d or sets[0]["levels_done"] >= C.k - 1 or r.d <= div

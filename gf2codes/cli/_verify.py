@@ -225,6 +225,7 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
         "d_method": res.method,
         "d_route_reason": res.reason,
         "d_route_estimates_s": {e: float(f"{v:.3g}") for e, v in res.estimates.items()},
+        "d_information_sets": [dict(x) for x in res.information_sets],
         "codewords_examined": res.codewords,
         "seconds": round(time.perf_counter() - start, 4),
         "stopped": res.stopped,
