@@ -562,7 +562,7 @@ def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
 
 
 # ------------------------------------------------------- dual-side (parity-check) route
-_BITMAP_BITS = 30  # a bitmap of 2^30 bits (128 MiB) at most; beyond, buckets of top bits
+_BITMAP_BITS = 32  # a bitmap of 2^32 bits (512 MiB) at most; beyond, buckets of top bits
 # Measured rates (one core) of the dual-side scan, see scripts/bench_distance.py:
 # subsets enumerated and looked up per second, and bitmap bytes cleared per second.
 _RATE_DUAL = 4e8
