@@ -186,6 +186,7 @@ def main() -> None:
           f"{cores} cores, numpy {np.__version__}")
     print(cpu_report())
     minimum_distance(families.hamming(3))  # warm numba's cache
+    minimum_distance(families.hamming(4), method="dual-columns")
 
     if args.only in (None, "a"):
         print("\n## (a) enumeration throughput, one core")
