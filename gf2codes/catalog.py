@@ -169,7 +169,7 @@ __all__ = [
 ]
 
 #: Version of the database schema this gf2codes writes (``PRAGMA user_version``).
-SCHEMA_VERSION = 3
+SCHEMA_VERSION = 4
 #: ``PRAGMA application_id`` of a gf2codes catalog (the bytes ``g2cc``).
 APPLICATION_ID = 0x67326363
 #: ``record`` value of an exported catalog entry.
@@ -234,6 +234,33 @@ MIGRATIONS: tuple[tuple[str, ...], ...] = (
     (
         """ALTER TABLE entry ADD COLUMN provenance TEXT NOT NULL DEFAULT
            '{"kind":"claimed","source":"stored before gf2codes recorded provenance"}'""",
+    ),
+    # 3 -> 4: the plan and progress of growth jobs (gf2codes.growth).
+    (
+        """CREATE TABLE growth_job (
+            id INTEGER PRIMARY KEY AUTOINCREMENT,
+            key TEXT NOT NULL UNIQUE,
+            spec TEXT NOT NULL,
+            created_at TEXT NOT NULL,
+            finished_at TEXT)""",
+        """CREATE TABLE growth_cell (
+            job_id INTEGER NOT NULL REFERENCES growth_job(id) ON DELETE CASCADE,
+            rank INTEGER NOT NULL,
+            n INTEGER NOT NULL,
+            k INTEGER NOT NULL,
+            d_planned INTEGER NOT NULL,
+            bound INTEGER NOT NULL,
+            state TEXT NOT NULL DEFAULT 'pending' CHECK (state IN ('pending', 'done')),
+            outcome TEXT,
+            d_before INTEGER,
+            d_found INTEGER,
+            entry_id INTEGER,
+            strategy TEXT,
+            seconds REAL,
+            stopped TEXT,
+            finished_at TEXT,
+            PRIMARY KEY (job_id, n, k))""",
+        """CREATE INDEX growth_cell_rank ON growth_cell (job_id, state, rank)""",
     ),
 )
 assert len(MIGRATIONS) == SCHEMA_VERSION

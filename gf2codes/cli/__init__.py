@@ -34,6 +34,8 @@ COMMANDS: dict[str, str] = {
     "export": "._export",
     "catalog": "._catalog",
     "equivalent": "._equivalent",
+    "grow": "._grow",
+    "gaps": "._gaps",
 }
 
 #: Sub-command name -> its one-line help, as its module registers it. ``gf2codes --help``
