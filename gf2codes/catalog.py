@@ -23,7 +23,8 @@ reduced-echelon rows, the weight distribution, the equivalence invariant, the pr
 when and by which gf2codes version it was added, its origin: ``user`` or
 ``shipped``, and its provenance), ``recipe`` (every way the code was obtained: source,
 steps, seed and the coordinate permutation from the recipe's code to the stored
-generator) and ``meta``.
+generator), ``meta``, and the plan and progress of growth jobs (``growth_job``,
+``growth_cell``; written by :mod:`gf2codes.growth`).
 
 Provenance: proved here, or claimed
 -----------------------------------
