@@ -255,3 +255,29 @@ def test_cli_bad_input_is_one_line_and_status_2(cli, capsys, argv, message):
     assert cli(argv) == 2
     err = capsys.readouterr().err
     assert message in err and err.count("\n") == 1
+
+
+# ------------------------------------------------------------------ the shipped seed
+# The lengths the search finds in 60 s per target (README, "search benchmark", measured
+# with scripts/bench_search.py); the shipped seed must answer at least as short at once.
+_SEARCH_60S = {(10, 6): 20, (16, 6): 27, (32, 6): 45}
+
+
+def test_the_shipped_seed_answers_the_engineering_targets_at_once(tmp_path):
+    with open_catalog(tmp_path / "fresh.sqlite") as cat:
+        for (k, d), n in _SEARCH_60S.items():
+            start = time.perf_counter()
+            entry = cat.best(k=k, d=d)
+            assert time.perf_counter() - start < 5  # a lookup, not a search
+            assert entry is not None and entry.n <= n and entry.d >= d, (k, d)
+        for k, d in [(64, 6), (64, 8), (48, 8)]:
+            entry = cat.best(k=k, d=d)
+            assert entry is not None and entry.d >= d and entry.k == k, (k, d)
+            code = entry.code  # rebuilt from its recipe
+            assert (code.n, code.k) == (entry.n, k)
+
+
+def test_the_shipped_seed_covers_every_cell_up_to_64(tmp_path):
+    with open_catalog(tmp_path / "fresh.sqlite") as cat:
+        st = growth.region_standing(cat, growth.region_cells(lengths=range(1, 65)))
+    assert st.cells == 2080 and st.unknown == 0
