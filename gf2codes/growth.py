@@ -211,7 +211,7 @@ def region_cells(*, lengths: Iterable[int] | None = None,
         k = check_int("k", k, minimum=1)
         d = check_int("d", d, minimum=1)
         lo = least_length(k, d).n
-        known = catalog.best(k=k, d=d) if catalog is not None else None
+        known = catalog.pick(k=k, d=d) if catalog is not None else None
         hi = known.n - 1 if known is not None else lo + 2 * d + k
         cells.update((n, k) for n in range(lo, hi + 1))
     return sorted(cells)
@@ -352,7 +352,7 @@ def job_status(catalog: Any, job: int) -> dict[str, int]:
 
 # ------------------------------------------------------------------ the job
 def _start_payload(catalog: Any, n: int, k: int) -> list[Any] | None:
-    entry = catalog.best(n=n, k=k)
+    entry = catalog.pick(n=n, k=k)
     if entry is None:
         return None
     code = entry.code
@@ -645,7 +645,7 @@ def region_standing(catalog: Any, cells: Sequence[tuple[int, int]]) -> RegionSta
     open_cells.sort(key=lambda t: (-t[0], t[1], t[2]))
     out = []
     for _, n, k, d, by in open_cells:
-        entry = catalog.best(n=n, k=k) if d else None
+        entry = catalog.pick(n=n, k=k) if d else None
         if entry is None:
             code, recipe = "none", "-"
         else:

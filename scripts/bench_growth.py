@@ -49,7 +49,8 @@ def run(workers: int, cells, args) -> tuple[float, list, list]:
                      max_cells=args.cells, executor=ex)
             seconds = time.perf_counter() - t0
             results = sorted((r.n, r.k, r.d_before, r.d_found, r.outcome) for r in s.results)
-            table = [(r["n"], r["k"], r["d"]) for r in cat.table(sorted({n for n, _ in cells}))]
+            lengths = sorted({n for n, _ in cells})
+            table = [(r["n"], r["k"], r["d"]) for r in cat.distance_table(lengths)]
     return seconds, results, table
 
 

@@ -90,7 +90,7 @@ def test_grow_saves_proved_improvements_and_closes_cells(tmp_path):
         assert summary.improved >= 1
         for res in seen:
             assert res.d_found <= res.bound == best_upper(res.n, res.k).d
-            got = cat.best(n=res.n, k=res.k)
+            got = cat.pick(n=res.n, k=res.k)
             assert got is not None and got.d >= res.d_found
             if res.outcome == "improved":
                 assert res.entry is not None and res.d_found > res.d_before
@@ -106,14 +106,14 @@ def test_grow_resumes_where_it_stopped_with_the_same_codes(tmp_path):
     cells = growth.region_cells(lengths=range(7, 11), dimensions=range(2, 6))
     with _empty(tmp_path, "a.sqlite") as a:
         whole = growth.grow(a, cells, max_steps=20, seed=5, batch=3)
-        rows_a = a.table(range(7, 11))
+        rows_a = a.distance_table(range(7, 11))
     with _empty(tmp_path, "b.sqlite") as b:
         first = growth.grow(b, cells, max_steps=20, seed=5, batch=3, max_cells=4)
         assert first.stopped == "cell limit" and first.done == 4
         second = growth.grow(b, cells, max_steps=20, seed=5, batch=3)
         assert second.job == first.job and second.resumed == 4
         assert second.done == second.cells == whole.cells
-        rows_b = b.table(range(7, 11))
+        rows_b = b.distance_table(range(7, 11))
     assert [r["d"] for r in rows_a] == [r["d"] for r in rows_b]
 
 
@@ -140,7 +140,7 @@ def test_results_do_not_depend_on_the_number_of_workers(tmp_path):
         with _empty(tmp_path, name) as cat:
             s = growth.grow(cat, cells, max_steps=15, seed=9, batch=4, executor=executor)
             return (sorted((r.n, r.k, r.d_before, r.d_found, r.outcome) for r in s.results),
-                    [r["d"] for r in cat.table(range(9, 13))])
+                    [r["d"] for r in cat.distance_table(range(9, 13))])
 
     with ProcessPool(2) as pool:
         two = run("two.sqlite", pool)
@@ -191,7 +191,7 @@ def test_kill_9_mid_run_loses_no_proved_code(tmp_path):
     with open_catalog(path) as cat:
         assert cat.check() == []
         for r in improved:  # every reported code is in the catalog
-            assert cat.best(n=r["n"], k=r["k"]).d >= r["d"]
+            assert cat.pick(n=r["n"], k=r["k"]).d >= r["d"]
         done = growth.job_status(cat, 1)["done"]
     assert done >= len(reported)
     out = subprocess.run(_grow_command(path), capture_output=True, text=True, env=env,
@@ -202,7 +202,7 @@ def test_kill_9_mid_run_loses_no_proved_code(tmp_path):
     assert last["done"] == last["cells"]
     with open_catalog(path) as cat:
         for r in improved:
-            assert cat.best(n=r["n"], k=r["k"]).d >= r["d"]
+            assert cat.pick(n=r["n"], k=r["k"]).d >= r["d"]
         _check_saved_codes(cat)
 
 
@@ -213,7 +213,7 @@ def test_region_standing_counts_against_the_table(tmp_path):
         cat.add(F.extended_golay(), d=8)
         cells = growth.region_cells(lengths=range(1, 13))
         st = growth.region_standing(cat, cells)
-        rows = cat.table(range(1, 13))
+        rows = cat.distance_table(range(1, 13))
     assert st.cells == len(rows) == 78
     assert st.at_bound == sum(r["d"] >= r["bound"] for r in rows)
     assert st.within_one == sum(r["d"] >= r["bound"] - 1 for r in rows)
@@ -267,11 +267,11 @@ def test_the_shipped_seed_answers_the_engineering_targets_at_once(tmp_path):
     with open_catalog(tmp_path / "fresh.sqlite") as cat:
         for (k, d), n in _SEARCH_60S.items():
             start = time.perf_counter()
-            entry = cat.best(k=k, d=d)
+            entry = cat.pick(k=k, d=d)
             assert time.perf_counter() - start < 5  # a lookup, not a search
             assert entry is not None and entry.n <= n and entry.d >= d, (k, d)
         for k, d in [(64, 6), (64, 8), (48, 8)]:
-            entry = cat.best(k=k, d=d)
+            entry = cat.pick(k=k, d=d)
             assert entry is not None and entry.d >= d and entry.k == k, (k, d)
             code = entry.code  # rebuilt from its recipe
             assert (code.n, code.k) == (entry.n, k)

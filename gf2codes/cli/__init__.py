@@ -51,6 +51,8 @@ SUMMARIES: dict[str, str] = {
     "export": "write the systematic encoder and syndrome as C, text, npy, JSON or GraphML",
     "catalog": "the local catalog of proved codes: add, list, pick, table, ...",
     "equivalent": "decide whether two codes are equal up to a coordinate permutation",
+    "grow": "grow the catalog on a region of (n, k) cells: a resumable job",
+    "gaps": "where the catalog stands on a region: cells at the bound, the gaps",
 }
 
 
