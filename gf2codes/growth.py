@@ -211,7 +211,7 @@ def region_cells(*, lengths: Iterable[int] | None = None,
         k = check_int("k", k, minimum=1)
         d = check_int("d", d, minimum=1)
         lo = least_length(k, d).n
-        known = catalog.pick(k=k, d=d) if catalog is not None else None
+        known = catalog.pick(k=k, d=d, claims=False) if catalog is not None else None
         hi = known.n - 1 if known is not None else lo + 2 * d + k
         cells.update((n, k) for n in range(lo, hi + 1))
     return sorted(cells)
@@ -288,10 +288,11 @@ class _State:
     def d(self, n: int, k: int) -> int:
         from .catalog import _reach_d
 
-        ids, N0, K0, L0, _ = self.catalog._load_arrays()
-        if ids.size == 0:
+        ids, N0, K0, L0, _, proved = self.catalog._load_arrays()
+        if not proved.any():
             return 0
-        return int(_reach_d(N0, K0, L0, n, k).max())
+        # only distances proved by this installation count (claims never do)
+        return int(_reach_d(N0[proved], K0[proved], L0[proved], n, k).max())
 
 
 def _plan(catalog: Any, state: _State, spec: dict[str, Any]) -> tuple[int, int]:
@@ -352,7 +353,7 @@ def job_status(catalog: Any, job: int) -> dict[str, int]:
 
 # ------------------------------------------------------------------ the job
 def _start_payload(catalog: Any, n: int, k: int) -> list[Any] | None:
-    entry = catalog.pick(n=n, k=k)
+    entry = catalog.pick(n=n, k=k, claims=False)
     if entry is None:
         return None
     code = entry.code
@@ -645,7 +646,7 @@ def region_standing(catalog: Any, cells: Sequence[tuple[int, int]]) -> RegionSta
     open_cells.sort(key=lambda t: (-t[0], t[1], t[2]))
     out = []
     for _, n, k, d, by in open_cells:
-        entry = catalog.pick(n=n, k=k) if d else None
+        entry = catalog.pick(n=n, k=k, claims=False) if d else None
         if entry is None:
             code, recipe = "none", "-"
         else:
