@@ -17,7 +17,10 @@ References
 from __future__ import annotations
 
 import math
+import os
+from collections import deque
 from collections.abc import Sequence
+from concurrent.futures import Future, ThreadPoolExecutor
 from functools import lru_cache
 
 import numpy as np
@@ -102,16 +105,52 @@ def weight_enumeration_cost(code: Code) -> int:
 
 
 def _count(code: Code, progress: ProgressCallback | None) -> list[int]:
+    """Histogram of the weights of every codeword, in blocks of about 2^24 codewords.
+
+    Blocks run on one thread per core when there are several (the kernel releases the
+    GIL); the histogram is a sum, so the result does not depend on the order.
+    """
     rows = np.array(code.packed_generator, dtype=np.uint64, order="C")
     OT, TT, _ = _gray_layout(rows)
     outer = 1 << OT.shape[1]
     per = max(1, (1 << 24) // TT.shape[1])
+    blocks = [(g, min(outer, g + per)) for g in range(0, outer, per)]
     hist = np.zeros(code.n + 1, dtype=np.int64)
-    for g in range(0, outer, per):
-        stop = min(outer, g + per)
-        hist += _kernels.gray_weight_histogram(OT, TT, g, stop, code.n)
-        if progress is not None:
-            progress(stop * TT.shape[1], outer * TT.shape[1], {})
+    total = outer * TT.shape[1]
+
+    def block(bounds: tuple[int, int]) -> np.ndarray:
+        return _kernels.gray_weight_histogram(OT, TT, bounds[0], bounds[1], code.n)
+
+    threads = min(os.cpu_count() or 1, len(blocks))
+    if threads <= 1:
+        done = 0
+        for bounds in blocks:
+            hist += block(bounds)
+            done = bounds[1] * TT.shape[1]
+            if progress is not None:
+                progress(done, total, {})
+        return [int(x) for x in hist]
+    _ = _kernels.gray_weight_histogram.dispatcher  # compile or load once, before the threads
+    done = 0
+    pool = ThreadPoolExecutor(max_workers=threads)
+    pending: deque[tuple[tuple[int, int], Future[np.ndarray]]] = deque()
+    todo = iter(blocks)
+    try:
+        while True:
+            while len(pending) < 2 * threads:  # a short queue, so Ctrl-C stops soon
+                bounds = next(todo, None)
+                if bounds is None:
+                    break
+                pending.append((bounds, pool.submit(block, bounds)))
+            if not pending:
+                break
+            bounds, future = pending.popleft()
+            hist += future.result()
+            done += (bounds[1] - bounds[0]) * TT.shape[1]
+            if progress is not None:
+                progress(done, total, {})
+    finally:
+        pool.shutdown(wait=True, cancel_futures=True)
     return [int(x) for x in hist]
 
 
