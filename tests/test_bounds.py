@@ -172,13 +172,15 @@ def test_known_optima_are_attained(build, n, k, d):
     assert B.best_upper(n, k).d == d
 
 
-def test_best_upper_15_7_is_not_tight():
+def test_best_upper_15_7_is_tight_by_a_linear_code_rule():
     # d(15,7) = 5 for linear codes (BCH [15,7,5] optimal; MS77 app. A, from memory), but a
     # nonlinear (15, 128, 6) code exists (shortened Nordstrom-Robinson, MS77 ch. 2 §8), so
     # no bound that also holds for nonlinear codes (LP, Hamming, Elias) can reach 5, and
-    # Griesmer allows 6 (6+3+2+1+1+1+1 = 15). The value 6 is valid, just not tight.
-    assert B.best_upper(15, 7).d == 6
+    # Griesmer allows 6 (6+3+2+1+1+1+1 = 15). The table's residual-code rule, which holds
+    # for linear codes only, closes the gap (checked by hand: a [15,7,6] code would give a
+    # [9,6,3] residual code, and the Hamming bound allows only d <= 2 at [9,6]).
     assert B.lp_bound(15, 7) == 6
+    assert B.best_upper(15, 7).d == 5
 
 
 def test_lp_and_hamming_beat_griesmer_at_31_16():
@@ -402,7 +404,7 @@ def test_cli_table_piped_at_80_columns_shows_every_cell():
     (["--n", "5", "--k", "7"], "Argument 'k' must be at most 5, not 7."),
     (["--n", "5", "--d", "6"], "Argument 'd' must be at most 5, not 6."),
     (["--n", "x", "--k", "2"], "Argument 'n' must be an integer, not 'x'."),
-    (["--n", "5"], "exactly two of"),
+    (["--n", "5"], "two or three of"),
     (["--table", "--d", "3", "--n", "1-4"], "must not be given with --table"),
     (["--table", "--k", "0-4"], "Argument 'k' must be at least 1, not 0."),
     (["--table", "--d", "1-200"], "Argument 'd' must be at most 128 with --table, not 200."),
