@@ -1,6 +1,7 @@
 """Compiled kernel of the exhaustive existence decision (:mod:`gf2codes.existence`).
 
-One resumable depth-first search, the compiled twin of
+Declared with :func:`gf2codes._jit.kernel` (compiled or loaded from numba's cache on
+first call). One resumable depth-first search, the compiled twin of
 ``gf2codes.existence._Backtrack`` (the plain-Python version, which the tests run on
 the same inputs and demand the same answer, node count and witness from). All state
 lives in arrays owned by the caller, so the search runs in chunks of nodes and the
@@ -11,21 +12,16 @@ Rows of ``A`` are integers of ``r = n - k`` bits, bit ``r - 1 - j`` being column
 
 from __future__ import annotations
 
-import numba as nb
 import numpy as np
-from numba import types
 
+from ._jit import kernel
 from ._kernels import popcount64
 
 __all__ = ["existence_dfs"]
 
-_u64 = types.uint64
-_i64 = types.int64
 
-
-@nb.njit(_i64(_u64[:, :], _i64[:], _i64[:], _u64[:], _u64[:], _u64[:], _i64[:],
-              _i64[:, :], _i64[:], _i64, _i64, _i64, _i64),
-         cache=True, nogil=True)
+@kernel("int64(uint64[:, ::1], int64[::1], int64[::1], uint64[::1], uint64[::1], uint64[::1], "
+        "int64[::1], int64[:, ::1], int64[::1], int64, int64, int64, int64)", nogil=True)
 def existence_dfs(cand, cand_len, pos, tied, rows, sums, offs, sums_len, state,
                   k, d, r, max_nodes):  # pragma: no cover - compiled
     """Run the backtrack until it finishes or ``state[1]`` reaches ``max_nodes``.

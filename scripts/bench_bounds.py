@@ -48,7 +48,7 @@ def main() -> None:
     with tempfile.TemporaryDirectory() as td:
         cat = open_catalog(os.path.join(td, "catalog.db"))
         for top in (32, 64):
-            rows = cat.table(range(1, top + 1))
+            rows = cat.distance_table(range(1, top + 1))
             op = [r for r in rows if r["d"] < r["bound"]]
             gaps = {}
             for r in op:

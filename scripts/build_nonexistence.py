@@ -29,7 +29,7 @@ OUT = Path(B.__file__).with_name("_nonexistence.jsonl")
 
 
 def open_cells(cat, max_n: int) -> list[dict]:
-    return [r for r in cat.table(range(1, max_n + 1)) if r["d"] < r["bound"]]
+    return [r for r in cat.distance_table(range(1, max_n + 1)) if r["d"] < r["bound"]]
 
 
 def main() -> None:

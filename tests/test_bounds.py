@@ -475,7 +475,7 @@ def test_no_bound_below_a_code_in_the_catalog(tmp_path):
     from gf2codes.catalog import open_catalog
 
     with open_catalog(tmp_path / "c.db") as cat:
-        rows = cat.table(range(1, 33))
+        rows = cat.distance_table(range(1, 33))
     for row in rows:
         n, k, d = row["n"], row["k"], row["d"]
         if d == 0:
