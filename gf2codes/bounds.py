@@ -816,7 +816,7 @@ def upper_bounds(n: int, k: int) -> dict[str, int]:
 TABLE_LENGTH = 128
 
 #: ``(rule, source cell or None, extra)`` for each cell of the fixed-point table.
-_Why = tuple[str, "tuple[int, int] | None", int]
+_Why = tuple[str, tuple[int, int] | None, int]
 
 
 @cache
@@ -884,7 +884,8 @@ def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
     val: list[list[int]] = [[0]]
     why: list[list[_Why]] = [[("", None, 0)]]
     for n in range(1, T + 1):
-        vrow, wrow = [0], [("", None, 0)]
+        vrow: list[int] = [0]
+        wrow: list[_Why] = [("", None, 0)]
         for k in range(1, n + 1):
             v, name = _base(n, k)
             vrow.append(v)
@@ -903,7 +904,8 @@ def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
             row, wrow = val[n], why[n]
             for k in range(1, n + 1):
                 v = row[k]
-                best, reason = v, wrow[k]
+                best: int = v
+                reason: _Why = wrow[k]
                 if k >= 2:
                     e = val[n - 1][k - 1]
                     if e < best:
@@ -959,7 +961,9 @@ def bound_chain(n: int, k: int) -> list[str]:
         ub = _best(n, k)
         return [f"[{n},{k}] d <= {ub.d}: {ub.by}"]
     val, why = _fixed_table()
-    out, cell, seen = [], (n, k), set()
+    out: list[str] = []
+    cell: tuple[int, int] | None = (n, k)
+    seen: set[tuple[int, int]] = set()
     while cell is not None and cell not in seen and cell[0] <= TABLE_LENGTH + 1:
         seen.add(cell)
         a, b = cell

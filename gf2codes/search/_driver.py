@@ -262,7 +262,7 @@ def run_search(
         db = bounds.max_dimension(n, d)
         bound, bound_by = db.k, db.by
     smaller_better = mode == "length"
-    bound_state = {"bound": bound, "by": bound_by}
+    bound_state: dict[str, Any] = {"bound": bound, "by": bound_by}
 
     def target_of(v: int) -> tuple[int, int, int]:
         if mode == "length":
