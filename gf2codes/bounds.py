@@ -61,7 +61,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 from functools import cache, lru_cache
 
-from .exceptions import ParameterError, check_int
+from .exceptions import ParameterError, TooExpensiveError, check_int
 
 __all__ = [
     "UpperBound",
@@ -77,6 +77,12 @@ __all__ = [
     "lp_bound",
     "upper_bounds",
     "best_upper",
+    "bound_chain",
+    "proved_nonexistence",
+    "TABLE_LENGTH",
+    "LP_LENGTH_LIMIT",
+    "EXACT_LENGTH_LIMIT",
+    "skipped_bounds",
     "least_length",
     "max_dimension",
     "length_bounds",
@@ -143,7 +149,7 @@ def _check_kd(k: object, d: object) -> tuple[int, int]:
 # ----------------------------------------------------------------------------- helpers
 
 
-@cache
+@lru_cache(maxsize=64)
 def _volumes(n: int) -> tuple[int, ...]:
     """``V(n, t) = sum_{i<=t} C(n, i)`` for ``t = 0..n`` (size of a Hamming ball)."""
     out, acc = [], 0
@@ -478,6 +484,15 @@ def _cheap_profiles(n: int) -> dict[str, tuple[int, ...]]:
     return out
 
 
+def _point(name: str, n: int, k: int) -> int:
+    """One named bound at ``(n, k)``; :class:`TooExpensiveError` if it is skipped there."""
+    value = _individual(n, k).get(name)
+    if value is None:
+        raise TooExpensiveError(f"The {name} bound is not evaluated at n = {n}: "
+                                f"{skipped_bounds(n)[name]}.")
+    return value
+
+
 def _search_d(kmax, n: int, k: int, top: int | None = None) -> int:
     # Largest d in [1, n] that is not ruled out, by bisection. Sound without monotonicity:
     # the answer d* has d* + 1 ruled out (or d* = n), and one impossible distance rules out
@@ -553,7 +568,7 @@ def hamming_bound(n: int, k: int) -> int:
     (3, 7, 8)
     """
     n, k = _check_nk(n, k)
-    return _cheap_profiles(n)["hamming"][k]
+    return _point("hamming", n, k)
 
 
 def plotkin_bound(n: int, k: int) -> int:
@@ -596,7 +611,7 @@ def plotkin_bound(n: int, k: int) -> int:
     (8, 8)
     """
     n, k = _check_nk(n, k)
-    return _cheap_profiles(n)["plotkin"][k]
+    return _point("plotkin", n, k)
 
 
 def griesmer_bound(n: int, k: int) -> int:
@@ -626,7 +641,7 @@ def griesmer_bound(n: int, k: int) -> int:
     (8, 8)
     """
     n, k = _check_nk(n, k)
-    return _cheap_profiles(n)["griesmer"][k]
+    return _point("griesmer", n, k)
 
 
 @lru_cache(maxsize=4096)
@@ -667,7 +682,7 @@ def elias_bound(n: int, k: int) -> int:
     True
     """
     n, k = _check_nk(n, k)
-    return _elias(n, k)
+    return _point("elias", n, k)
 
 
 @lru_cache(maxsize=4096)
@@ -719,15 +734,56 @@ def lp_bound(n: int, k: int) -> int:
     (8, 7)
     """
     n, k = _check_nk(n, k)
-    return _lp(n, k)
+    return _point("lp", n, k)
 
 
-def _individual(n: int, k: int) -> dict[str, int]:
-    prof = _cheap_profiles(n)
-    out = {name: prof[name][k] for name in ("singleton", "hamming", "plotkin", "griesmer")}
-    out["elias"] = _elias(n, k)
-    out["lp"] = _lp(n, k)
+#: Largest length at which the certified LP bound and the propagation table are used.
+LP_LENGTH_LIMIT = 256
+#: Largest length at which the Hamming, Elias and existence bounds are evaluated (they
+#: need exact sums of binomial coefficients, whose cost grows like n^2 bits).
+EXACT_LENGTH_LIMIT = 4096
+
+
+def skipped_bounds(n: int) -> dict[str, str]:
+    """The bounds not evaluated at length ``n``, each with the reason.
+
+    Below :data:`LP_LENGTH_LIMIT` nothing is skipped. Above it the LP bound and the
+    table rules are not used; above :data:`EXACT_LENGTH_LIMIT` neither are the Hamming,
+    Elias, Gilbert-Varshamov and Varshamov bounds. Skipping a bound only weakens the
+    answer; every bound that is reported is still proved.
+
+    Examples
+    --------
+    >>> sorted(skipped_bounds(1000))
+    ['lp', 'table']
+    """
+    n = check_int("n", n, minimum=1)
+    out: dict[str, str] = {}
+    if n > LP_LENGTH_LIMIT:
+        out["lp"] = f"n = {n} is above {LP_LENGTH_LIMIT}, the range of the certified LP"
+        out["table"] = (f"n = {n} is above {LP_LENGTH_LIMIT}: only formula bounds at the "
+                        "point, no propagation through the table")
+    if n > EXACT_LENGTH_LIMIT:
+        why = (f"n = {n} is above {EXACT_LENGTH_LIMIT}; its exact binomial sums would take "
+               "too long")
+        for name in ("hamming", "elias", "gilbert_varshamov", "varshamov"):
+            out[name] = why
     return out
+
+
+@lru_cache(maxsize=4096)
+def _individual(n: int, k: int) -> dict[str, int]:
+    if n <= 2 * LP_LENGTH_LIMIT:
+        prof = _cheap_profiles(n)
+        out = {name: prof[name][k] for name in ("singleton", "hamming", "plotkin", "griesmer")}
+    else:
+        skip = skipped_bounds(n)
+        out = {name: _search_d(_KMAX[name], n, k) for name in _CHEAP if name not in skip}
+    if n <= EXACT_LENGTH_LIMIT:
+        out["elias"] = _elias(n, k)
+    if n <= LP_LENGTH_LIMIT:
+        out["lp"] = _lp(n, k)
+    return {name: out[name] for name in UPPER_BOUND_NAMES if name in out}
 
 
 def upper_bounds(n: int, k: int) -> dict[str, int]:
@@ -736,8 +792,9 @@ def upper_bounds(n: int, k: int) -> dict[str, int]:
     Returns
     -------
     dict of str to int
-        Keys ``"singleton", "hamming", "plotkin", "griesmer", "elias", "lp"``. Each
-        value is always present (the Plotkin bound is defined everywhere through
+        Keys ``"singleton", "hamming", "plotkin", "griesmer", "elias", "lp"``, less the
+        bounds that :func:`skipped_bounds` skips at length ``n`` (none for
+        ``n <= LP_LENGTH_LIMIT``; the Plotkin bound is defined everywhere through
         shortening, see :func:`plotkin_bound`).
 
     Raises
@@ -755,7 +812,168 @@ def upper_bounds(n: int, k: int) -> dict[str, int]:
 
 # -------------------------------------------------- the table with neighbour relations
 
-_rows: list[list[tuple[int, str]]] = [[]]  # _rows[n][k] = (bound on D(n, k), label)
+#: Lengths covered by the fixed-point table (rows beyond are extended one at a time).
+TABLE_LENGTH = 128
+
+#: ``(rule, source cell or None, extra)`` for each cell of the fixed-point table.
+_Why = tuple[str, tuple[int, int] | None, int]
+
+
+@cache
+def proved_nonexistence() -> tuple[tuple[int, int, int, int], ...]:
+    """The shipped exhaustive non-existence results ``(n, k, d, nodes)``.
+
+    Each says "no binary linear ``[n, k, d]`` code exists", decided by
+    :func:`gf2codes.existence.decide_existence` (an exhaustive search of ``nodes``
+    nodes). The file ``_nonexistence.jsonl`` beside this module is written by
+    ``scripts/build_nonexistence.py``; the tests decide every entry again.
+    """
+    import json
+    from pathlib import Path
+
+    path = Path(__file__).with_name("_nonexistence.jsonl")
+    out = []
+    if path.exists():
+        for line in path.read_text().splitlines():
+            if line.strip():
+                rec = json.loads(line)
+                out.append((int(rec["n"]), int(rec["k"]), int(rec["d"]), int(rec["nodes"])))
+    return tuple(out)
+
+
+def _describe(n: int, k: int, value: int, why: _Why) -> str:
+    rule, src, extra = why
+    if src is None:
+        if rule == "exhaustive":
+            return f"exhaustive search: no [{n},{k},{value + 1}] code ({extra:,} nodes)"
+        return rule
+    cell = f"[{src[0]},{src[1]}]"
+    if rule == "residual":
+        return (f"residual: an [{n},{k},{extra}] code would give a "
+                f"{cell[:-1]},{-(-extra // 2)}] code")
+    return f"{rule} {cell}"
+
+
+@cache
+def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
+    """The fixed point of the propagation rules over ``n <= TABLE_LENGTH + 1``.
+
+    Start: for every cell the least of the cheap formula bounds and the shipped
+    exhaustive non-existence results. Then apply, in sweeps until nothing changes
+    (each rule is a theorem about ``D(n, k)``, the largest distance of an ``[n, k]``
+    code; a value only ever decreases, so the sweeps terminate):
+
+    * shortening: ``D(n, k) <= D(n - 1, k - 1)`` ([2] Thm 1.5.7);
+    * puncturing: ``D(n, k) <= D(n - 1, k) + 1`` ([1] ch. 1 §9; [2] Thm 1.5.1);
+    * subcode: ``D(n, k) <= D(n, k - 1)``;
+    * parity: an upper bound ``e`` on ``D(n + 1, k)`` gives ``D(n, k) <= 2 floor(e/2)``
+      (append a zero coordinate, or for odd ``d`` an overall parity bit);
+    * residual code: if an ``[n, k]`` code with minimum distance exactly ``d`` exists
+      (``k >= 2``), the residual code with respect to a word of weight ``d`` is an
+      ``[n - d, k - 1, >= ceil(d / 2)]`` code ([2] Thm 2.7.1; proof: for ``x`` outside
+      ``{0, c}``, ``wt(x) + wt(x + c) >= 2d`` gives ``2 wt(x outside c) >= d``, which is
+      also why the map has kernel ``{0, c}``). So if the table rules that code out, no
+      ``[n, k]`` code has distance exactly ``d``, hence none has distance ``>= d``
+      (puncture and append zero coordinates to bring any larger distance down to
+      ``d``), and ``D(n, k) <= d - 1``.
+
+    The last row (``TABLE_LENGTH + 1``) takes its parity step from the cheap bounds one
+    length further. Returns the values and, per cell, the rule and source cell.
+    """
+    T = TABLE_LENGTH + 1
+    val: list[list[int]] = [[0]]
+    why: list[list[_Why]] = [[("", None, 0)]]
+    for n in range(1, T + 1):
+        vrow: list[int] = [0]
+        wrow: list[_Why] = [("", None, 0)]
+        for k in range(1, n + 1):
+            v, name = _base(n, k)
+            vrow.append(v)
+            wrow.append((name, None, 0))
+        val.append(vrow)
+        why.append(wrow)
+    for n, k, d, nodes in proved_nonexistence():
+        if n <= T and k <= n and d - 1 < val[n][k]:
+            val[n][k] = d - 1
+            why[n][k] = ("exhaustive", None, nodes)
+    above = [0] + [_base(T + 1, k)[0] for k in range(1, T + 2)]
+    changed = True
+    while changed:
+        changed = False
+        for n in range(1, T + 1):
+            row, wrow = val[n], why[n]
+            for k in range(1, n + 1):
+                v = row[k]
+                best: int = v
+                reason: _Why = wrow[k]
+                if k >= 2:
+                    e = val[n - 1][k - 1]
+                    if e < best:
+                        best, reason = e, ("shortening", (n - 1, k - 1), 0)
+                    e = row[k - 1]
+                    if e < best:
+                        best, reason = e, ("subcode", (n, k - 1), 0)
+                if k <= n - 1:
+                    e = val[n - 1][k] + 1
+                    if e < best:
+                        best, reason = e, ("puncturing", (n - 1, k), 0)
+                e = 2 * ((val[n + 1][k] if n < T else above[k]) // 2)
+                if e < best:
+                    best, reason = e, ("parity", (n + 1, k), 0)
+                if k >= 2:
+                    dd = best
+                    while dd >= 1:
+                        m = n - dd
+                        if m >= k - 1 and val[m][k - 1] >= -(-dd // 2):
+                            break
+                        dd -= 1
+                    if dd < best:
+                        m = n - (dd + 1)
+                        best, reason = dd, ("residual", (max(m, 0), k - 1), dd + 1)
+                if best < v:
+                    if best < 1:  # pragma: no cover - would mean a rule below a real code
+                        raise AssertionError(f"bound table broken at [{n},{k}]")
+                    row[k], wrow[k] = best, reason
+                    changed = True
+    return val, why
+
+
+def _reset_tables() -> None:
+    """Forget every cached table value (after ``_nonexistence.jsonl`` changed)."""
+    for f in (proved_nonexistence, _fixed_table, _best, _least_length, _max_dimension):
+        f.cache_clear()
+    _rows.clear()
+
+
+def bound_chain(n: int, k: int) -> list[str]:
+    """How the table's bound at ``(n, k)`` was obtained, one step per line.
+
+    Follows the source cells of :func:`best_upper`'s table back to a formula bound or an
+    exhaustive search, e.g. ``["[16,8] d <= 5: parity [17,8]", ..., "[18,8] d <= 6:
+    griesmer"]``. Only for ``n <= TABLE_LENGTH`` (otherwise one line from the bound).
+
+    Raises
+    ------
+    ParameterError
+    """
+    n, k = _check_nk(n, k)
+    if n > TABLE_LENGTH:
+        ub = _best(n, k)
+        return [f"[{n},{k}] d <= {ub.d}: {ub.by}"]
+    val, why = _fixed_table()
+    out: list[str] = []
+    cell: tuple[int, int] | None = (n, k)
+    seen: set[tuple[int, int]] = set()
+    while cell is not None and cell not in seen and cell[0] <= TABLE_LENGTH + 1:
+        seen.add(cell)
+        a, b = cell
+        w = why[a][b]
+        out.append(f"[{a},{b}] d <= {val[a][b]}: {_describe(a, b, val[a][b], w)}")
+        cell = w[1]
+    return out
+
+
+_rows: list[list[tuple[int, str]]] = []  # _rows[n][k] = (bound on D(n, k), label)
 
 
 def _base(n: int, k: int) -> tuple[int, str]:
@@ -764,17 +982,19 @@ def _base(n: int, k: int) -> tuple[int, str]:
 
 
 def _extend_table(n_max: int) -> None:
+    if not _rows:
+        val, why = _fixed_table()
+        for n in range(TABLE_LENGTH + 2):
+            _rows.append([(val[n][k], _describe(n, k, val[n][k], why[n][k])) for k in range(n + 1)])
     while len(_rows) <= n_max:
         n = len(_rows)
         row: list[tuple[int, str]] = [(0, "")]
         for k in range(1, n + 1):
             cands = [_base(n, k)]
-            # Adding a zero coordinate, then parity: D(n, k) <= D(n+1, k), and if an
-            # [n, k, d] code with d odd exists so does [n+1, k, d+1] ([1] ch. 1 §9).
-            # Hence an upper bound e on D(n+1, k) gives D(n, k) <= 2 floor(e / 2).
-            # Used with the cheap bounds at (n+1, k) -- computed directly, not from the
-            # table, so there is no circularity -- and with (n, k-1) >= D(n+1, k), which
-            # holds by shortening [n+1, k] -> [n, k-1].
+            # Beyond the fixed-point table, rows are built one at a time from the rules
+            # of _fixed_table that look at shorter lengths, plus the parity step with the
+            # cheap bounds at (n+1, k) -- computed directly, so there is no circularity --
+            # and with (n, k-1) >= D(n+1, k), which holds by shortening [n+1, k] -> [n, k-1].
             e, name = _base(n + 1, k)
             cands.append((2 * (e // 2), f"{name} at [{n + 1},{k}], parity"))
             if k >= 2:
@@ -782,16 +1002,11 @@ def _extend_table(n_max: int) -> None:
                 cands.append((2 * (e // 2), f"[{n},{k - 1}] by shortening [{n + 1},{k}], "
                                             "parity"))
             if k <= n - 1:
-                # Puncturing: an [n, k, d] code with d >= 2 gives [n-1, k, d-1], so
-                # D(n, k) <= D(n-1, k) + 1 ([1] ch. 1 §9; [2] Thm 1.5.1).
                 e, lab = _rows[n - 1][k]
                 cands.append((e + 1, f"[{n - 1},{k}] ({lab}), puncturing"))
             if k >= 2:
-                # Shortening: an [n, k, d] code gives [n-1, k-1, >= d], so
-                # D(n, k) <= D(n-1, k-1) ([2] Thm 1.5.7).
                 e, lab = _rows[n - 1][k - 1]
                 cands.append((e, f"[{n - 1},{k - 1}] ({lab}), shortening"))
-                # Subcode: D(n, k) <= D(n, k-1).
                 e, lab = row[k - 1]
                 cands.append((e, f"[{n},{k - 1}] ({lab}), subcode"))
             value = min(c[0] for c in cands)
@@ -814,19 +1029,25 @@ def _short_label(label: str) -> str:
 
 @lru_cache(maxsize=65536)
 def _best(n: int, k: int) -> UpperBound:
+    if n > LP_LENGTH_LIMIT:
+        # Formula bounds at the point only (see skipped_bounds): fast for any n.
+        ind = _individual(n, k)
+        value = min(ind.values())
+        return UpperBound(value, next(nm for nm, v in ind.items() if v == value))
     _extend_table(n)
     table_d, table_by = _rows[n][k]
     cands = [(table_d, table_by)]
     ind = _individual(n, k)
     # Prefer crediting a single named bound when it gives the same value.
-    for name in UPPER_BOUND_NAMES:
-        cands.insert(0 if ind[name] <= table_d else len(cands), (ind[name], name))
+    for name, v in ind.items():
+        cands.insert(0 if v <= table_d else len(cands), (v, name))
     # Zero coordinate and parity with the LP one length further (see _extend_table):
     # D(n, k) <= 2 floor(lp(n+1, k) / 2).
-    e = _lp(n + 1, k)
-    cands.append((2 * (e // 2), f"lp at [{n + 1},{k}], parity"))
+    if n + 1 <= LP_LENGTH_LIMIT:
+        e = _lp(n + 1, k)
+        cands.append((2 * (e // 2), f"lp at [{n + 1},{k}], parity"))
     value = min(c[0] for c in cands)
-    named = [name for name in UPPER_BOUND_NAMES if ind[name] == value]
+    named = [name for name in ind if ind[name] == value]
     if named:
         return UpperBound(value, named[0])
     return UpperBound(value, next(c[1] for c in cands if c[0] == value))
@@ -904,7 +1125,7 @@ def ruling_out(n: int, k: int, d: int) -> list[str]:
     if k > n or d > n:
         return ["trivial (k <= n and d <= n)"]
     ind = _individual(n, k)
-    return [name for name in UPPER_BOUND_NAMES if ind[name] < d]
+    return [name for name in ind if ind[name] < d]
 
 
 @lru_cache(maxsize=4096)
@@ -913,8 +1134,20 @@ def _least_length(k: int, d: int) -> LengthBound:
     # the answer n* has best_upper(n* - 1, k) < d, a proof that no [n* - 1, k, d] code
     # exists, and then no shorter one either (append zero coordinates).
     n = k + d - 1
-    while _best(n, k).d < d:
+    while n <= LP_LENGTH_LIMIT and _best(n, k).d < d:
         n += 1
+    if n > LP_LENGTH_LIMIT and _best(n, k).d < d:
+        # Beyond the table: bisection between a ruled-out length and k d, where k
+        # disjoint repetition blocks of length d give a code. Sound for the same reason:
+        # the answer n* has n* - 1 ruled out, hence every shorter length too.
+        lo, hi = n, k * d
+        while hi - lo > 1:
+            mid = (lo + hi) // 2
+            if _best(mid, k).d >= d:
+                hi = mid
+            else:
+                lo = mid
+        n = hi
     if n == k + d - 1 and n == max(k, d):
         return LengthBound(n, "trivial (k <= n and d <= n)")
     if n == k + d - 1:
@@ -999,23 +1232,30 @@ def length_bounds(k: int, d: int) -> dict[str, int]:
     Returns
     -------
     dict of str to int
-        Same keys as :func:`upper_bounds`.
+        Same keys as :func:`upper_bounds` (the bounds skipped at length ``max(k, d)``
+        are left out, see :func:`skipped_bounds`).
 
     Raises
     ------
     ParameterError
     """
     k, d = _check_kd(k, d)
-    hi = _existence_length(k, d).n  # a code exists there, so every valid bound allows it
+    # k disjoint repetition blocks of length d form a [k d, k, d] code, so every valid
+    # bound allows n = k d. A bound skipped at a length (see skipped_bounds) proves
+    # nothing there, so it counts as allowing it; a bound skipped already at the least
+    # length max(k, d) is left out.
+    hi = k * d
     out = {}
     for name in UPPER_BOUND_NAMES:
+        if name in skipped_bounds(max(k, d)):
+            continue
         # Bisection over n: sound because ruling out [n, k, d] rules out every shorter
         # length (append zero coordinates). Lengths below max(k, d) are impossible.
         lo = max(k, d) - 1
         h = hi
         while h - lo > 1:
             mid = (lo + h) // 2
-            if _individual(mid, k)[name] >= d:
+            if _individual(mid, k).get(name, d) >= d:
                 h = mid
             else:
                 lo = mid
@@ -1037,7 +1277,7 @@ def dimension_bounds(n: int, d: int) -> dict[str, int]:
     """
     n, d = _check_nd(n, d)
     out = {}
-    for name in UPPER_BOUND_NAMES:
+    for name in _individual(n, 1):
         lo, hi = 1, n + 1  # bisection, sound by the subcode argument in max_dimension
         while hi - lo > 1:
             mid = (lo + hi) // 2
@@ -1149,18 +1389,45 @@ def lower_bounds(n: int, k: int) -> dict[str, int]:
     ParameterError
     """
     n, k = _check_nk(n, k)
+    if n > EXACT_LENGTH_LIMIT:
+        return {}  # skipped, see skipped_bounds
     return {"gilbert_varshamov": _largest_d(_gv_ok, n, k),
             "varshamov": _largest_d(_varshamov_ok, n, k)}
 
 
 @lru_cache(maxsize=4096)
 def _existence_length(k: int, d: int) -> LengthBound:
-    n = max(k, d)
-    while True:
-        for name, ok in (("varshamov", _varshamov_ok), ("gilbert_varshamov", _gv_ok)):
-            if ok(n, k, d):
-                return LengthBound(n, name)
-        n += 1
+    # k disjoint repetition blocks of length d: a [k d, k, d] code, always. Below that,
+    # each test holds at every length from the least one on (if V(n, t) < 2^(n-k+c) then
+    # V(n+1, t) <= 2 V(n, t) < 2^(n+1-k+c)), so the least length is found by bisection,
+    # among the lengths where the tests are evaluated (see skipped_bounds).
+    best = LengthBound(k * d, "repetition blocks")
+    for name, n in _existence_lengths(k, d).items():
+        if n is not None and (n < best.n or (n == best.n and best.by == "repetition blocks")):
+            best = LengthBound(n, name)
+    return best
+
+
+@lru_cache(maxsize=4096)
+def _existence_lengths(k: int, d: int) -> dict[str, int | None]:
+    """The least length each existence bound guarantees (``None``: not within the lengths
+    where it is evaluated, up to ``min(k d, EXACT_LENGTH_LIMIT)``)."""
+    out: dict[str, int | None] = {}
+    top = min(k * d, EXACT_LENGTH_LIMIT)
+    for name, ok in (("gilbert_varshamov", _gv_ok), ("varshamov", _varshamov_ok)):
+        lo = max(k, d) - 1
+        out[name] = None
+        if lo + 1 > top or not ok(top, k, d):
+            continue
+        hi = top
+        while hi - lo > 1:
+            mid = (lo + hi) // 2
+            if ok(mid, k, d):
+                hi = mid
+            else:
+                lo = mid
+        out[name] = hi
+    return out
 
 
 def existence_length(k: int, d: int) -> LengthBound:
@@ -1175,7 +1442,7 @@ def existence_length(k: int, d: int) -> LengthBound:
     -------
     LengthBound
         ``n`` and ``by`` (``"varshamov"`` or ``"gilbert_varshamov"``, the bound that
-        guarantees it).
+        guarantees it, or ``"repetition blocks"``: ``k`` blocks of length ``d``).
 
     Raises
     ------
@@ -1214,7 +1481,10 @@ def existence_dimension(n: int, d: int) -> DimensionBound:
     6
     """
     n, d = _check_nd(n, d)
-    best = DimensionBound(0, "none")
+    # floor(n / d) disjoint repetition blocks of length >= d: always a code.
+    best = DimensionBound(n // d, "repetition blocks")
+    if n > EXACT_LENGTH_LIMIT:
+        return best
     for name, ok in (("varshamov", _varshamov_ok), ("gilbert_varshamov", _gv_ok)):
         k = 0
         while k < n and ok(n, k + 1, d):

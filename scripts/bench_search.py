@@ -7,7 +7,11 @@ the README. Figures only, no assertions. The "from scratch" rows exclude the
 
     PYTHONPATH=. python scripts/bench_search.py [--time-limit S] [--seed S]
 
-It ends with the speed-up of 2 worker processes over 1 for the portfolio run as
+The "proved in" column is the time until the answer was *proved* shortest (the
+search stops the moment the incumbent meets the proved limit, which now includes
+exhaustive non-existence decisions), or "not proved" when the time limit came first.
+The targets marked "needs a non-existence proof" are those whose optimum no formula
+bound reaches. It ends with the speed-up of 2 worker processes over 1 for the portfolio run as
 parallel tasks.
 """
 
@@ -35,6 +39,10 @@ TARGETS = [
     (8, 8, None, ""),
     (20, 4, None, ""),
     (32, 6, None, ""),
+    (5, 5, None, "needs a non-existence proof: [12,5,5]"),
+    (10, 5, None, "needs a non-existence proof: [18,10,5]"),
+    (6, 13, None, "needs a non-existence proof: [28,6,13]"),
+    (7, 5, None, "needs the residual rule: [14,7,5]"),
 ]
 
 
@@ -53,20 +61,22 @@ def main() -> None:
                           strategies=strategies)
         wall = time.perf_counter() - t0
         used = "all" if strategies is None else "no families"
-        row = (k, d, r.n, r.bound, r.n - r.bound, r.d, r.strategy, used, r.seconds, wall,
+        proved = f"{r.seconds:.1f} s" if r.optimal else "not proved"
+        row = (k, d, r.n, r.bound, r.n - r.bound, r.d, r.strategy, used, proved, wall,
                r.stopped, note)
         rows.append(row)
         print(f"k={k:3d} d={d:2d}  n={r.n:4d}  bound={r.bound:4d} ({r.bound_by})  "
               f"gap={r.n - r.bound}  d={r.d}  by {r.strategy:10s} [{used}]  "
-              f"{r.seconds:6.2f} s search, {wall:6.2f} s with proof  ({r.stopped}) {note}",
+              f"{r.seconds:6.2f} s search, {wall:6.2f} s with proof  ({r.stopped}; "
+              f"proved in: {proved}) {note}",
               flush=True)
     print()
     print("| k | d | n found | least n (bounds) | gap | d proved | found by | strategies "
-          "| seconds | note |")
-    print("|---:|---:|---:|---:|---:|---:|---|---|---:|---|")
-    for k, d, n, b, gap, dd, who, used, _secs, wall, stopped, note in rows:
+          "| seconds | proved shortest in | note |")
+    print("|---:|---:|---:|---:|---:|---:|---|---|---:|---:|---|")
+    for k, d, n, b, gap, dd, who, used, proved, wall, stopped, note in rows:
         print(f"| {k} | {d} | {n} | {b} | {gap} | {dd} | {who} | {used} | {wall:.1f} "
-              f"| {note or stopped} |")
+              f"| {proved} | {note or stopped} |")
     speedup(args.seed)
     load = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
     print(f"\nload average {load:.2f} at the end")

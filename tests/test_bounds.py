@@ -172,13 +172,15 @@ def test_known_optima_are_attained(build, n, k, d):
     assert B.best_upper(n, k).d == d
 
 
-def test_best_upper_15_7_is_not_tight():
+def test_best_upper_15_7_is_tight_by_a_linear_code_rule():
     # d(15,7) = 5 for linear codes (BCH [15,7,5] optimal; MS77 app. A, from memory), but a
     # nonlinear (15, 128, 6) code exists (shortened Nordstrom-Robinson, MS77 ch. 2 §8), so
     # no bound that also holds for nonlinear codes (LP, Hamming, Elias) can reach 5, and
-    # Griesmer allows 6 (6+3+2+1+1+1+1 = 15). The value 6 is valid, just not tight.
-    assert B.best_upper(15, 7).d == 6
+    # Griesmer allows 6 (6+3+2+1+1+1+1 = 15). The table's residual-code rule, which holds
+    # for linear codes only, closes the gap (checked by hand: a [15,7,6] code would give a
+    # [9,6,3] residual code, and the Hamming bound allows only d <= 2 at [9,6]).
     assert B.lp_bound(15, 7) == 6
+    assert B.best_upper(15, 7).d == 5
 
 
 def test_lp_and_hamming_beat_griesmer_at_31_16():
@@ -402,7 +404,7 @@ def test_cli_table_piped_at_80_columns_shows_every_cell():
     (["--n", "5", "--k", "7"], "Argument 'k' must be at most 5, not 7."),
     (["--n", "5", "--d", "6"], "Argument 'd' must be at most 5, not 6."),
     (["--n", "x", "--k", "2"], "Argument 'n' must be an integer, not 'x'."),
-    (["--n", "5"], "exactly two of"),
+    (["--n", "5"], "two or three of"),
     (["--table", "--d", "3", "--n", "1-4"], "must not be given with --table"),
     (["--table", "--k", "0-4"], "Argument 'k' must be at least 1, not 0."),
     (["--table", "--d", "1-200"], "Argument 'd' must be at most 128 with --table, not 200."),
@@ -424,3 +426,81 @@ def test_cli_subprocess_bad_input_exits_2():
     assert lines == ["gf2codes bounds: error: Argument 'k' must be at most 5, not 9."]
     assert "Traceback" not in proc.stderr
 
+
+
+# ------------------------------------------- absurd sizes answer at once (issue 14)
+
+
+def test_regression_bounds_n100000_k50000_answers_with_formula_bounds():
+    # used to hang (binomial sums over every d); now formula bounds at the point only.
+    # Griesmer checked by hand: sum_{i<50000} ceil(25004 / 2^i) <= 100000 < that for 25005.
+    ub = B.upper_bounds(100000, 50000)
+    assert set(ub) == {"singleton", "griesmer", "plotkin"}
+    assert B.best_upper(100000, 50000) == B.UpperBound(ub["griesmer"], "griesmer")
+    assert sum(-(-ub["griesmer"] // (1 << i)) for i in range(50000)) <= 100000
+    assert sum(-(-(ub["griesmer"] + 1) // (1 << i)) for i in range(50000)) > 100000
+    assert {"lp", "hamming", "elias", "table"} <= set(B.skipped_bounds(100000))
+    assert B.lower_bounds(100000, 50000) == {}
+
+
+def test_regression_bounds_k12_d100000_answers_with_formula_bounds():
+    # used to hang scanning n upwards; Griesmer length sum_{i<12} ceil(100000 / 2^i)
+    lb = B.least_length(12, 100000)
+    assert lb.n == sum(-(-100000 // (1 << i)) for i in range(12))
+    assert B.existence_length(12, 100000) == B.LengthBound(1200000, "repetition blocks")
+
+
+def test_regression_cli_absurd_size_through_a_pipe():
+    out = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--n", "100000", "--k",
+                          "50000", "--json"], capture_output=True, text=True, timeout=120,
+                         check=True)
+    rec = json.loads(out.stdout)
+    assert "lp" in rec["skipped"] and "hamming" in rec["skipped"]
+
+
+@pytest.mark.parametrize("argv", [["--k", "12", "--d", "100000"],
+                                  ["--n", "100000", "--d", "1000"]])
+def test_regression_cli_absurd_sizes_name_the_skipped_bounds(argv, capsys):
+    from gf2codes.cli import main
+
+    assert main(["bounds", *argv, "--json"]) == 0
+    rec = json.loads(capsys.readouterr().out)
+    assert "lp" in rec["skipped"] and "hamming" in rec["skipped"]
+
+
+def test_table_bounds_never_below_brute_force():
+    # every cell n <= 17 with k (n - k) <= 16 against D(n, k) by brute force
+    from gf2codes._reference import brute_best_distance_systematic
+
+    for n in range(2, 18):
+        for k in range(1, n + 1):
+            if k * (n - k) <= 16 and k + k * (n - k) <= 22:
+                assert B.best_upper(n, k).d >= brute_best_distance_systematic(n, k), (n, k)
+
+
+def test_no_bound_below_a_code_in_the_catalog(tmp_path):
+    # every bound, every cell n <= 32, against the shipped catalog's proved codes
+    from gf2codes.catalog import open_catalog
+
+    with open_catalog(tmp_path / "c.db") as cat:
+        rows = cat.distance_table(range(1, 33))
+    for row in rows:
+        n, k, d = row["n"], row["k"], row["d"]
+        if d == 0:
+            continue
+        assert B.best_upper(n, k).d >= d, (n, k)
+        for name, value in B.upper_bounds(n, k).items():
+            assert value >= d, (n, k, name)
+        assert B.least_length(k, d).n <= n and B.max_dimension(n, d).k >= k
+
+
+def test_bound_chain_names_rule_and_source_cell():
+    chain = B.bound_chain(16, 8)
+    assert chain[0].startswith("[16,8] d <= 5: ")
+    assert any("exhaustive search" in step or "residual" in step for step in chain)
+    assert all(" d <= " in step for step in chain)
+
+
+def test_residual_rule_by_hand():
+    # [13,6,5] would have a [8,5,3] residual code; Hamming: 2^5 (1 + 8) > 2^8, so d(8,5) <= 2
+    assert B.best_upper(13, 6).d == 4

@@ -124,7 +124,8 @@ def test_every_strategy_reaches_small_targets(name):
     """Each strategy alone, on targets at their least length; d re-proved by brute force."""
     limits = {"cyclic": [(4, 3)], "random": [(4, 3), (4, 4)]}
     for k, d in limits.get(name, SMALL):
-        r = S.search_length(k, d, time_limit=20, seed=3, strategies=[name])
+        r = S.search_length(k, d, time_limit=20, seed=3, strategies=[name],
+                            exhaustive_nodes=0)
         assert r.code.k == k and _proved_d(r.code) >= d
         assert r.d == _proved_d(r.code)
         assert r.strategy in (name, "trivial")
@@ -149,19 +150,25 @@ def test_golay_length_from_scratch_without_families():
 def test_distance_and_dimension_modes():
     r = S.search_distance(16, 5, time_limit=20, seed=0)  # RM(1,4) [16,5,8]: M&S ch. 13 §3
     assert (r.n, r.k, r.d) == (16, 5, 8) and r.optimal and r.bound == 8
-    # BCH [15,7,5] (M&S ch. 7 §6); the Griesmer bound allows 6, so not proved optimal
+    # BCH [15,7,5] (M&S ch. 7 §6); Griesmer allows 6, the table's residual rule 5
+    # (see test_bounds.py), so it is proved optimal
     r = S.search_distance(15, 7, max_steps=60, seed=0)
-    assert (r.n, r.k, r.d, r.bound) == (15, 7, 5, 6) and not r.optimal
-    assert "only a lower bound" in r.statement()
+    assert (r.n, r.k, r.d, r.bound) == (15, 7, 5, 5) and r.optimal
+    # [15,7,6] not ruled out by the formula bounds alone: without the table, the
+    # statement says plainly that d = 5 is only a lower bound
+    r = S.search_distance(15, 8, max_steps=30, seed=0, strategies=["greedy"],
+                          exhaustive_nodes=0)
+    assert r.optimal or "only a lower bound" in r.statement()
     r = S.search_dimension(8, 4, time_limit=20, seed=0)  # extended Hamming [8,4,4]
     assert (r.n, r.k, r.d) == (8, 4, 4) and r.optimal
     assert brute_distance(r.code.G) == 4
 
 
 def test_not_optimal_is_said_plainly():
-    # (k=10, d=6): the bounds give n >= 19 but no [19,10,6] code is known to this test;
-    # the greedy alone stops at a longer length and must not claim optimality.
-    r = S.search_length(10, 6, max_steps=30, seed=0, strategies=["greedy"])
+    # (k=16, d=6): the bounds give n >= 26; the greedy alone (30 steps, no exhaustive
+    # decision) stops at a longer length and must not claim optimality.
+    r = S.search_length(16, 6, max_steps=30, seed=0, strategies=["greedy"],
+                        exhaustive_nodes=0)
     assert not r.optimal and r.n > r.bound
     assert "only an upper bound" in r.statement()
     assert r.to_dict()["proven_shortest"] is False
@@ -195,6 +202,7 @@ class _Interrupting(Strategy):
 def test_interrupt_keeps_the_best_proved_code():
     seen = []
     r = S.search_length(4, 4, time_limit=30, seed=0, strategies=[_Interrupting()],
+                        exhaustive_nodes=0,
                         on_winner=lambda code, d, info: seen.append((code.n, d)))
     assert r.stopped == "interrupted" and not r.optimal
     assert r.n == 10 and r.d == brute_distance(r.code.G) == 4 and r.open_target == (9, 4, 4)
@@ -325,3 +333,34 @@ def test_unusable_default_catalog_is_reported_not_silently_skipped(tmp_path, mon
     assert main(["search", "--k", "4", "--d", "3", "--max-steps", "5"]) == 0
     err = capsys.readouterr().err
     assert "cannot be used" in err and "will not be saved" in err
+
+
+def test_search_closes_the_question_by_exhaustive_search(monkeypatch):
+    # With the bound weakened to the Singleton length (9 for k = 5, d = 5), the driver
+    # must itself decide that no [12,5,5] code exists (exhaustive search) once it holds a
+    # [13,5,5] code, and stop at once: proved shortest. d(12,5) = 4, d(13,5) = 5 (from
+    # memory; [12,5,5] non-existence is also checked against brute force-free plain
+    # backtracking in test_existence.py).
+    from gf2codes import bounds
+    from gf2codes.search import _driver
+
+    monkeypatch.setattr(_driver.bounds, "least_length",
+                        lambda k, d: bounds.LengthBound(9, "singleton"))
+    r = S.search_length(5, 5, time_limit=60, seed=0)
+    assert r.n == 13 and r.optimal and r.stopped == "bound attained"
+    assert r.bound == 13 and r.bound_by.startswith("exhaustive search")
+    assert "proved shortest" in r.statement()
+    assert brute_distance(r.code.G) == 5
+
+
+def test_search_takes_an_exhaustive_witness(monkeypatch):
+    # Distance mode at [16,8]: with a weak bound the exhaustive decision finds a [16,8,5]
+    # code (a witness, checked by brute force) and proves [16,8,6] impossible.
+    from gf2codes import bounds
+    from gf2codes.search import _driver
+
+    monkeypatch.setattr(_driver.bounds, "best_upper",
+                        lambda n, k: bounds.UpperBound(9, "singleton"))
+    r = S.search_distance(16, 8, time_limit=60, seed=0, strategies=["random"])
+    assert r.d == 5 and r.optimal and r.bound == 5
+    assert brute_distance(r.code.G) == 5  # computed by brute force in this test

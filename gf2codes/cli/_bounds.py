@@ -7,6 +7,8 @@ Four modes, chosen by which options are given:
 * ``--k K --d D``: the least length each bound allows (and which bounds force it);
 * ``--table [--k A-B] [--d C-D]``: for every (k, d), the least length the upper bounds
   allow and the length at which an existence bound guarantees a code.
+* ``--n N --k K --d D``: is there an ``[N, K, D]`` code? The bounds, then an exhaustive
+  search within a node budget (``--nodes``) when they leave the question open.
 """
 
 from __future__ import annotations
@@ -34,6 +36,7 @@ _TITLES = {
     "varshamov": "Varshamov",
 }
 
+_NODES = 2_000_000  # default node budget of the exhaustive decision
 _TABLE_LIMIT = 128  # largest k and d accepted in --table mode (each cell may solve LPs)
 
 
@@ -49,6 +52,11 @@ def register(subparsers) -> None:
                    help="dimension (data bits); a range like 1-16 with --table (the default)")
     p.add_argument("--d", metavar="D",
                    help="minimum distance; a range like 1-10 with --table (the default)")
+    p.add_argument("--nodes", metavar="N", default=None,
+                   help="node budget of the exhaustive search with --n --k --d "
+                        f"(default {_NODES:,})")
+    p.add_argument("--time-limit", metavar="SECONDS", default=None,
+                   help="time limit of the exhaustive search with --n --k --d (default 60)")
     p.add_argument("--table", action="store_true",
                    help="for every k and d in the ranges: the least length the bounds allow "
                         "and the length at which a code is guaranteed to exist")
@@ -66,6 +74,9 @@ def run(args) -> int:
             raise ParameterError("Argument 'n' must not be given with --table (its rows are "
                                  "k and its columns d; each cell is a length).")
         return _run_table(args)
+    if given == {"n", "k", "d"}:
+        return _run_nkd(parse_int("n", args.n), parse_int("k", args.k), parse_int("d", args.d),
+                        args)
     if given == {"n", "k"}:
         return _run_nk(parse_int("n", args.n), parse_int("k", args.k), args.json)
     if given == {"n", "d"}:
@@ -73,7 +84,7 @@ def run(args) -> int:
     if given == {"k", "d"}:
         return _run_kd(parse_int("k", args.k), parse_int("d", args.d), args.json)
     raise ParameterError(
-        "Arguments must be exactly two of --n, --k, --d (or --table), not "
+        "Arguments must be two or three of --n, --k, --d (or --table), not "
         + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
     )
 
@@ -104,10 +115,13 @@ def _run_nk(n: int, k: int, as_json: bool) -> int:
     upper = B.upper_bounds(n, k)  # validates n and k
     best = B.best_upper(n, k)
     lower = B.lower_bounds(n, k)
-    guaranteed = max(lower.values())
+    skipped = B.skipped_bounds(n)
+    guaranteed = max(lower.values()) if lower else max(1, n // k)  # k repetition blocks
+    chain = B.bound_chain(n, k) if n <= B.TABLE_LENGTH else []
     if as_json:
         print_json({"mode": "distance", "n": n, "k": k, "upper": upper, "lower": lower,
-                    "best": {"d": best.d, "by": best.by}, "guaranteed_d": guaranteed})
+                    "best": {"d": best.d, "by": best.by}, "guaranteed_d": guaranteed,
+                    "table_chain": chain, "skipped": skipped})
         return 0
     t = Table(title=f"Upper bounds on d, binary linear [{n},{k}]")
     t.add_column("bound")
@@ -118,12 +132,18 @@ def _run_nk(n: int, k: int, as_json: bool) -> int:
         t.add_row(_TITLES[name], str(value), "tightest" if tight[name] else "")
     console.print(t)
     console.print(f"Best upper bound: d <= {best.d}  (from {best.by})")
+    if len(chain) > 1:
+        console.print("  table steps: " + "; ".join(chain), soft_wrap=True)
+    _print_skipped(skipped)
     lo = Table(title="Existence bounds")
     lo.add_column("bound")
     lo.add_column("d at least", justify="right")
     for name, value in lower.items():
         lo.add_row(_TITLES[name], str(value))
     console.print(lo)
+    if not lower:
+        console.print(f"  (existence bounds skipped; {n // k or 1} = floor(n/k) from "
+                      "k repetition blocks)")
     console.print(f"Every binary linear [{n},{k}] code has d <= {best.d}; "
                   f"codes with d >= {guaranteed} are guaranteed to exist.")
     return 0
@@ -135,8 +155,10 @@ def _run_nd(n: int, d: int, as_json: bool) -> int:
     exist = B.existence_dimension(n, d)
     if as_json:
         print_json({"mode": "dimension", "n": n, "d": d, "upper": dims,
-                    "lower": {"gilbert_varshamov": _exist_k(n, d, "gilbert_varshamov"),
-                              "varshamov": _exist_k(n, d, "varshamov")},
+                    "lower": {name: _exist_k(n, d, name)
+                              for name in ("gilbert_varshamov", "varshamov")
+                              if name not in B.skipped_bounds(n)},
+                    "skipped": B.skipped_bounds(n),
                     "best": {"k": best.k, "by": best.by},
                     "guaranteed_k": {"k": exist.k, "by": exist.by}})
         return 0
@@ -150,8 +172,10 @@ def _run_nd(n: int, d: int, as_json: bool) -> int:
     console.print(t)
     console.print(f"Best: k <= {best.k}  (k = {best.k + 1} ruled out by {best.by})"
                   if best.k < n else f"Best: k <= {best.k}")
+    _print_skipped(B.skipped_bounds(n))
     console.print(f"Every binary linear code of length {n} and distance >= {d} has "
-                  f"k <= {best.k}; k = {exist.k} is guaranteed to exist ({_TITLES[exist.by]}).")
+                  f"k <= {best.k}; k = {exist.k} is guaranteed to exist "
+                  f"({_TITLES.get(exist.by, exist.by)}).")
     return 0
 
 
@@ -169,8 +193,8 @@ def _run_kd(k: int, d: int, as_json: bool) -> int:
     forced = B.ruling_out(best.n - 1, k, d) if best.n > 1 else []
     if as_json:
         print_json({"mode": "length", "k": k, "d": d, "upper": lengths,
-                    "lower": {"gilbert_varshamov": _exist_n(k, d, "gilbert_varshamov"),
-                              "varshamov": _exist_n(k, d, "varshamov")},
+                    "lower": B._existence_lengths(k, d),
+                    "skipped": B.skipped_bounds(max(k, d)),
                     "best": {"n": best.n, "by": best.by, "ruled_out_by": forced},
                     "guaranteed_n": {"n": exist.n, "by": exist.by}})
         return 0
@@ -185,16 +209,67 @@ def _run_kd(k: int, d: int, as_json: bool) -> int:
     why = ", ".join(_TITLES.get(f, f) for f in forced) or best.by
     console.print(f"No binary linear code with k = {k}, d = {d} is shorter than {best.n}; "
                   f"length {best.n - 1} is ruled out by: {why}.")
+    _print_skipped(B.skipped_bounds(max(k, d)))
     console.print(f"Such a code is guaranteed to exist at length {exist.n} "
-                  f"({_TITLES[exist.by]}).")
+                  f"({_TITLES.get(exist.by, exist.by)}).")
     return 0
 
 
-def _exist_n(k: int, d: int, name: str) -> int:
-    n = max(k, d)
-    while B.lower_bounds(n, k)[name] < d:
-        n += 1
-    return n
+_TITLES["repetition blocks"] = "k repetition blocks of length d"
+
+
+def _print_skipped(skipped: dict[str, str]) -> None:
+    for name, why in skipped.items():
+        console.print(f"  skipped: {_TITLES.get(name, name)} ({why})", soft_wrap=True)
+
+
+def _run_nkd(n: int, k: int, d: int, args) -> int:
+    """``--n --k --d``: the bounds' verdict, then an exhaustive decision when it is open."""
+    from ..existence import decide_existence
+    from ._common import err_console, parse_float
+
+    ub = B.best_upper(n, k)  # validates n and k
+    nodes = _NODES if args.nodes is None else parse_int("nodes", args.nodes)
+    limit = 60.0 if args.time_limit is None else parse_float("time_limit", args.time_limit)
+    if nodes < 1:
+        raise ParameterError(f"Argument 'nodes' must be at least 1, not {nodes}.")
+    if not limit > 0:
+        raise ParameterError(f"Argument 'time_limit' must be positive, not {limit}.")
+    if d < 1:
+        raise ParameterError(f"Argument 'd' must be at least 1, not {d}.")
+    out: dict = {"mode": "existence", "n": n, "k": k, "d": d, "d_upper_bound": ub.d,
+                 "d_upper_bound_by": ub.by}
+    if d > ub.d:
+        out.update(exists=False, by=ub.by,
+                   statement=f"no [{n},{k},{d}] code exists: d <= {ub.d} ({ub.by})")
+    elif n - k > 62:
+        out.update(exists=None, by=None, statement=f"the bounds allow [{n},{k},{d}] "
+                   f"(d <= {ub.d}); n - k = {n - k} is too large for an exhaustive search")
+    else:
+        def progress(done: int, info: dict) -> None:
+            err_console.print(f"  {info['note']}", end="\r")
+
+        dec = decide_existence(n, k, d, max_nodes=nodes, time_limit=limit,
+                               progress=None if args.json else progress)
+        out.update(exists={"exists": True, "none": False}.get(dec.status),
+                   by=f"exhaustive search ({dec.nodes:,} nodes)", nodes=dec.nodes,
+                   node_budget=nodes, seconds=round(dec.seconds, 3), stopped=dec.stopped,
+                   statement=dec.statement())
+        if dec.status == "exists":
+            out["generator"] = ["".join(map(str, row)) for row in dec.generator()]
+    if args.json:
+        print_json(out)
+        return 0
+    console.print(f"Bounds: every binary linear [{n},{k}] code has d <= {ub.d} ({ub.by}).")
+    if "nodes" in out:
+        console.print(f"Exhaustive search (budget {nodes:,} nodes, {limit:g} s): "
+                      f"{out['nodes']:,} nodes in {out['seconds']:.2f} s, {out['stopped']}.")
+    console.print(out["statement"][0].upper() + out["statement"][1:] + ".")
+    if out.get("generator"):
+        console.print("generator [I | A]:")
+        for row in out["generator"]:
+            console.print("  " + row)
+    return 0
 
 
 def _run_table(args) -> int:

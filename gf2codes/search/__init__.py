@@ -28,7 +28,7 @@ from __future__ import annotations
 from collections.abc import Iterable, Sequence
 
 from ..code import Code
-from ..exceptions import ParameterError
+from ..exceptions import ParameterError, check_int
 from ._anneal import Annealing
 from ._base import Strategy, screen, target_test
 from ._circulant import Circulant
@@ -115,6 +115,12 @@ _DOC_COMMON = """
         processes, a Dask cluster) and merge by a fixed rule: the best value, ties to
         the strategy earlier in the portfolio. With ``max_steps`` the result does not
         depend on the number of workers. ``progress`` is not called.
+    exhaustive_nodes : int
+        Node budget of each exhaustive existence decision
+        (:func:`gf2codes.existence.decide_existence`) for the target one step better
+        than the incumbent: "none" proves the incumbent optimal and stops the search at
+        once, "exists" gives a code. 0 turns the decisions off (the strategies alone);
+        not used with an executor.
 
     Returns
     -------
@@ -128,7 +134,7 @@ _DOC_COMMON = """
 
 
 def _run(mode: str, n, k, d, time_limit, max_steps, seed, strategies, start, progress,
-         on_winner, executor=None) -> SearchResult:
+         on_winner, executor=None, exhaustive_nodes: int = 200_000) -> SearchResult:
     n, k, d = validate(mode, n, k, d, time_limit, max_steps)
     chosen = resolve_strategies(strategies)
     start = [c for c in start if isinstance(c, Code)]
@@ -149,14 +155,16 @@ def _run(mode: str, n, k, d, time_limit, max_steps, seed, strategies, start, pro
         return result
     return run_search(mode, n=n, k=k, d=d, strategies=chosen, time_limit=time_limit,
                       max_steps=max_steps, seed=seed, start=start,
-                      progress=progress, on_winner=on_winner)
+                      progress=progress, on_winner=on_winner,
+                      exhaustive_nodes=check_int("exhaustive_nodes", exhaustive_nodes, minimum=0))
 
 
 def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
                   max_steps: int | None = None, seed: int = 0,
                   strategies: Iterable[str | Strategy] | None = None,
                   start: Sequence[Code] = (), progress: Progress | None = None,
-                  on_winner: OnWinner | None = None, executor=None) -> SearchResult:
+                  on_winner: OnWinner | None = None, executor=None,
+                  exhaustive_nodes: int = 200_000) -> SearchResult:
     """The shortest binary linear code of dimension ``k`` and distance at least ``d`` found.
 
     ``result.optimal`` (``proven_shortest``) is true when its length equals the least
@@ -168,14 +176,15 @@ def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
         Dimension and required distance, both at least 1.
     """
     return _run("length", None, k, d, time_limit, max_steps, seed, strategies, start,
-                progress, on_winner, executor)
+                progress, on_winner, executor, exhaustive_nodes)
 
 
 def search_distance(n: int, k: int, *, time_limit: float | None = 60.0,
                     max_steps: int | None = None, seed: int = 0,
                     strategies: Iterable[str | Strategy] | None = None,
                     start: Sequence[Code] = (), progress: Progress | None = None,
-                    on_winner: OnWinner | None = None, executor=None) -> SearchResult:
+                    on_winner: OnWinner | None = None, executor=None,
+                  exhaustive_nodes: int = 200_000) -> SearchResult:
     """The ``[n, k]`` code of greatest proved distance found.
 
     ``result.optimal`` is true when it meets :func:`gf2codes.bounds.best_upper`.
@@ -186,14 +195,15 @@ def search_distance(n: int, k: int, *, time_limit: float | None = 60.0,
         Length and dimension, ``1 <= k <= n``.
     """
     return _run("distance", n, k, None, time_limit, max_steps, seed, strategies, start,
-                progress, on_winner, executor)
+                progress, on_winner, executor, exhaustive_nodes)
 
 
 def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
                      max_steps: int | None = None, seed: int = 0,
                      strategies: Iterable[str | Strategy] | None = None,
                      start: Sequence[Code] = (), progress: Progress | None = None,
-                     on_winner: OnWinner | None = None, executor=None) -> SearchResult:
+                     on_winner: OnWinner | None = None, executor=None,
+                  exhaustive_nodes: int = 200_000) -> SearchResult:
     """The code of length ``n`` and distance at least ``d`` of greatest dimension found.
 
     ``result.optimal`` is true when it meets :func:`gf2codes.bounds.max_dimension`.
@@ -204,7 +214,7 @@ def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
         Length and required distance, ``1 <= d <= n``.
     """
     return _run("dimension", n, None, d, time_limit, max_steps, seed, strategies, start,
-                progress, on_winner, executor)
+                progress, on_winner, executor, exhaustive_nodes)
 
 
 for _f in (search_length, search_distance, search_dimension):

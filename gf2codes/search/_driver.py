@@ -139,8 +139,8 @@ class SearchResult:
         what = f"[{n},{k},{d}]" if self.d is not None else f"[{n},{k},>={d}]"
         if self.mode == "length":
             if self.optimal:
-                return (f"{what} is shortest: no [{n - 1},{k},{self.target[2]}] code exists "
-                        f"({self.bound_by}).")
+                return (f"{what} is proved shortest: no [{n - 1},{k},{self.target[2]}] code "
+                        f"exists ({self.bound_by}).")
             return (f"{what} is the shortest found; n = {n} is only an upper bound on the "
                     f"shortest length, which the bounds put at >= {self.bound} "
                     f"({self.bound_by}).")
@@ -245,6 +245,7 @@ def run_search(
     progress: Progress | None = None,
     on_winner: OnWinner | None = None,
     prove_time: float | None = None,
+    exhaustive_nodes: int = 200_000,
 ) -> SearchResult:
     """Run the portfolio (see the module docstring). Arguments are validated by the callers
     in :mod:`gf2codes.search`; ``n``, ``k``, ``d`` are the two fixed parameters."""
@@ -261,6 +262,7 @@ def run_search(
         db = bounds.max_dimension(n, d)
         bound, bound_by = db.k, db.by
     smaller_better = mode == "length"
+    bound_state: dict[str, Any] = {"bound": bound, "by": bound_by}
 
     def target_of(v: int) -> tuple[int, int, int]:
         if mode == "length":
@@ -276,7 +278,8 @@ def run_search(
         return v - 1 if smaller_better else v + 1
 
     def beyond_bound(v: int) -> bool:
-        return v < bound if smaller_better else v > bound
+        b = bound_state["bound"]
+        return v < b if smaller_better else v > b
 
     stats = {s.name: {"units": 0, "candidates": 0, "wins": 0} for s in strategies}
     state: dict[str, Any] = {"best": None, "value": None, "d": None, "d_lower": 0, "by": "",
@@ -347,6 +350,44 @@ def run_search(
     def done() -> bool:
         return state["value"] is not None and beyond_bound(step_better(state["value"]))
 
+    def close_by_exhaustion() -> None:
+        """Decide the target one step better than the incumbent by exhaustive search.
+
+        A "none" is a proof that the incumbent is optimal: the bound moves to it and the
+        search is done. An "exists" comes with a witness, accepted like any candidate
+        (then the next target is decided). Undecided (node budget, clock) leaves the
+        question to the portfolio. Uses :mod:`gf2codes.existence`, independent of the
+        strategies; a ``[n, k, >= d]`` code for the target exists iff one with that
+        exact n and k does (pad or shorten), so the decision is at the target itself.
+        """
+        from ..existence import MAX_REDUNDANCY, decide_existence
+
+        while state["value"] is not None and not done() and exhaustive_nodes > 0:
+            tgt = target_of(step_better(state["value"]))
+            tn, tk, td = tgt
+            if not (1 <= tk <= tn) or tn - tk > MAX_REDUNDANCY:
+                return
+            left = clock.left()
+            if left is not None and left <= 0:
+                return
+            report(tgt, force=True)
+            dec = decide_existence(tn, tk, td, max_nodes=exhaustive_nodes,
+                                   time_limit=None if left is None else max(left, 1e-3))
+            stats.setdefault("exhaustive", {"units": 0, "candidates": 0, "wins": 0})
+            stats["exhaustive"]["units"] += dec.nodes
+            if dec.stopped == "interrupted":
+                raise KeyboardInterrupt
+            if dec.status == "none":
+                bound_state["bound"] = state["value"]
+                bound_state["by"] = f"exhaustive search, {dec.nodes:,} nodes"
+                return
+            if dec.status != "exists":
+                return
+            if not accept(families.from_rows(np.array(dec.generator(), dtype=np.uint8))
+                          .with_info(name=f"exhaustive search [{tn},{tk},{td}]"),
+                          td, "exhaustive"):
+                return  # pragma: no cover - a witness is always a valid candidate
+
     def rng_for(index: int, target: tuple[int, int, int]) -> np.random.Generator:
         return np.random.default_rng([seed, index, *target])
 
@@ -391,6 +432,7 @@ def run_search(
                 break
             tried += 1
             v = v + 1 if smaller_better else v - 1
+        close_by_exhaustion()
         # 3. the portfolio, one target at a time
         while not done():
             tgt = target_of(step_better(state["value"]))
@@ -422,6 +464,7 @@ def run_search(
                 stopped = "exhausted"
                 break
             state["open"] = None
+            close_by_exhaustion()
         else:
             stopped = "bound attained"
     except _Stop as stop:
@@ -449,7 +492,7 @@ def run_search(
                    "mode": mode})
     return SearchResult(
         mode=mode, code=best, d=d_exact, d_lower=d_lower, optimal=done(),
-        bound=bound, bound_by=bound_by, target=(n, k, d),
+        bound=bound_state["bound"], bound_by=bound_state["by"], target=(n, k, d),
         strategy=state["by"], seed=seed, seconds=clock.elapsed(),
         candidates=state["candidates"], stopped=stopped, open_target=state["open"],
         stats=stats,

@@ -1,0 +1,177 @@
+"""Tests of gf2codes.existence: exhaustive existence decisions.
+
+A wrong "none" is a false non-existence proof, the worst bug this module could have, so
+every decision is checked against brute force wherever brute force is feasible (all
+``k (n - k) <= 16``), against a plain backtrack without the symmetry and counting rules
+(which only shares the systematic-form argument), and against published values (each
+with its source; "from memory" where the value was recalled, not re-read).
+"""
+
+from __future__ import annotations
+
+import json
+import signal
+import subprocess
+import sys
+import threading
+
+import pytest
+
+from gf2codes import bounds as B
+from gf2codes._reference import (
+    brute_best_distance_all,
+    brute_best_distance_systematic,
+    brute_distance,
+    plain_existence,
+)
+from gf2codes.exceptions import ParameterError
+from gf2codes.existence import decide_existence
+
+SMALL = [(n, k) for n in range(2, 18) for k in range(1, n + 1) if k * (n - k) <= 16]
+CHEAP = [nk for nk in SMALL if nk[1] + nk[1] * (nk[0] - nk[1]) <= 22]
+
+
+@pytest.fixture(scope="module")
+def true_d():
+    # computed by brute force in this test (every systematic generator, no symmetry used)
+    return {nk: brute_best_distance_systematic(*nk) for nk in CHEAP}
+
+
+@pytest.mark.parametrize("nk", CHEAP)
+def test_decision_matches_brute_force_for_every_d(nk, true_d):
+    n, k = nk
+    best = true_d[nk]
+    for d in range(1, n + 2):
+        dec = decide_existence(n, k, d, max_nodes=None)
+        assert dec.decided
+        assert dec.status == ("exists" if d <= best else "none"), (n, k, d, best)
+        if dec.status == "exists":  # the witness really has distance >= d
+            assert brute_distance(dec.generator()) >= d
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("nk", [nk for nk in SMALL if nk not in CHEAP])
+def test_decision_matches_brute_force_large(nk):
+    n, k = nk
+    best = brute_best_distance_systematic(n, k)  # computed by brute force in this test
+    for d in range(1, n + 2):
+        assert decide_existence(n, k, d, max_nodes=None).status == (
+            "exists" if d <= best else "none")
+
+
+@pytest.mark.parametrize("nk", [(n, k) for n in range(1, 9) for k in range(1, n + 1)
+                                if k * n <= 16])
+def test_systematic_brute_force_agrees_with_all_generators(nk):
+    # the brute force itself, checked without the systematic-form argument
+    assert brute_best_distance_all(*nk) == brute_best_distance_systematic(*nk)
+
+
+@pytest.mark.parametrize("n", range(5, 13))
+def test_decision_matches_plain_backtrack(n):
+    for k in range(2, n - 1):
+        for d in range(3, n - k + 2):
+            dec = decide_existence(n, k, d, max_nodes=None)
+            assert (dec.status == "exists") == plain_existence(n, k, d), (n, k, d)
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("n", range(13, 16))
+def test_decision_matches_plain_backtrack_slow(n):
+    for k in range(2, n - 1):
+        for d in range(3, n - k + 2):
+            assert (decide_existence(n, k, d, max_nodes=None).status == "exists") \
+                == plain_existence(n, k, d), (n, k, d)
+
+
+@pytest.mark.parametrize(("n", "k", "d"), [(12, 5, 5), (13, 6, 5), (14, 7, 5), (16, 8, 6),
+                                           (10, 3, 6), (24, 8, 10)])
+def test_compiled_and_python_twins_agree_node_for_node(n, k, d):
+    a = decide_existence(n, k, d, max_nodes=None)
+    b = decide_existence(n, k, d, max_nodes=None, compiled=False)
+    assert (a.status, a.nodes, a.witness) == (b.status, b.nodes, b.witness)
+
+
+@pytest.mark.parametrize(("n", "k", "d", "status"), [
+    (12, 5, 5, "none"),  # d(12,5) = 4 (MS77 app. A table of best codes, from memory)
+    (13, 6, 5, "none"),  # d(13,6) = 4 (from memory)
+    (14, 7, 5, "none"),  # d(14,7) = 4 (from memory)
+    (16, 8, 6, "none"),  # d(16,8) = 5 (from memory)
+    (18, 9, 7, "none"),  # d(18,9) = 6, the extended QR code [18,9,6] is optimal (from memory)
+    (24, 8, 10, "none"),  # d(24,8) = 8 (from memory; 10 is already excluded here)
+    (7, 4, 3, "exists"),  # Hamming code (MS77 ch. 1 §7)
+    (8, 4, 4, "exists"),  # extended Hamming code
+    (17, 9, 5, "exists"),  # quadratic-residue code of length 17 (MS77 ch. 16)
+    (23, 12, 7, "exists"),  # binary Golay code (MS77 ch. 2 §6)
+    (24, 12, 8, "exists"),  # extended Golay code
+    (16, 5, 8, "exists"),  # first-order Reed-Muller code RM(1,4) (MS77 ch. 13)
+])
+def test_published_values(n, k, d, status):
+    dec = decide_existence(n, k, d, max_nodes=None)
+    assert dec.status == status
+    if status == "exists":
+        assert brute_distance(dec.generator()) >= d
+
+
+def test_statement_says_what_was_decided():
+    assert decide_existence(12, 5, 5).statement() == \
+        "no [12,5,5] code exists (exhaustive search, 26 nodes)"
+    dec = decide_existence(24, 8, 9, max_nodes=500)
+    assert dec.status == "undecided" and dec.stopped == "node budget" and not dec.decided
+    assert "undecided" in dec.statement()
+
+
+def test_time_limit_leaves_the_cell_undecided():
+    dec = decide_existence(24, 8, 9, max_nodes=None, time_limit=0.2)
+    assert dec.status == "undecided" and dec.stopped == "time limit"
+
+
+def test_ctrl_c_leaves_the_cell_undecided():
+    def interrupt(nodes, info):
+        raise KeyboardInterrupt
+
+    dec = decide_existence(24, 8, 9, max_nodes=None, progress=interrupt, time_limit=30)
+    assert dec.status == "undecided" and dec.stopped == "interrupted"
+    assert threading.current_thread() is threading.main_thread() and signal.SIGINT
+
+
+@pytest.mark.parametrize(("args", "match"), [
+    ((0, 1, 1), "Argument 'n' must be at least 1, not 0."),
+    ((5, 6, 1), "Argument 'k' must be at most 5, not 6."),
+    ((5, 2, 0), "Argument 'd' must be at least 1, not 0."),
+    ((100, 2, 3), "Argument 'n - k' must be at most 62"),
+])
+def test_bad_arguments(args, match):
+    with pytest.raises(ParameterError, match=match):
+        decide_existence(*args)
+
+
+def test_every_shipped_nonexistence_result_is_decided_again():
+    # the table's exhaustive facts (gf2codes/_nonexistence.jsonl) are re-proved here
+    facts = B.proved_nonexistence()
+    assert facts
+    for n, k, d, nodes in facts:
+        if nodes > 200_000:
+            continue  # re-proved in the slow test below
+        dec = decide_existence(n, k, d, max_nodes=None)
+        assert dec.status == "none" and dec.nodes == nodes, (n, k, d)
+
+
+@pytest.mark.slow
+def test_every_shipped_nonexistence_result_is_decided_again_slow():
+    for n, k, d, nodes in B.proved_nonexistence():
+        dec = decide_existence(n, k, d, max_nodes=None)
+        assert dec.status == "none" and dec.nodes == nodes, (n, k, d)
+
+
+def test_cli_existence_mode(capsys):
+    from gf2codes.cli import main
+
+    out = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--n", "12", "--k", "5",
+                          "--d", "5", "--json"], capture_output=True, text=True, check=True)
+    rec = json.loads(out.stdout)
+    assert rec["exists"] is False and "exhaustive search" in rec["statement"]
+    assert main(["bounds", "--n", "16", "--k", "8", "--d", "5", "--json"]) == 0
+    rec = json.loads(capsys.readouterr().out)
+    assert rec["exists"] is True and rec["nodes"] >= 1
+    rows = [[int(c) for c in row] for row in rec["generator"]]
+    assert brute_distance(rows) >= 5  # computed by brute force in this test
