@@ -61,6 +61,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 from functools import cache, lru_cache
 
+from ._diskcache import Memo
 from .exceptions import ParameterError, TooExpensiveError, check_int
 
 __all__ = [
@@ -437,9 +438,28 @@ def _kmax_lp_even(n: int, d: int) -> int:
     return best
 
 
+#: Certified LP values already proved by this installation (see :mod:`gf2codes._diskcache`):
+#: ``"n,d"`` -> the bound of :func:`_kmax_lp_even_at`. Bump the version whenever the LP or
+#: its certificate changes, so old values are not reused.
+_LP_MEMO = Memo("lp-even", version="1")
+
+
 @cache
 def _kmax_lp_even_at(n: int, d: int) -> int:
-    """Certified LP bound on k from the LP at exactly ``(n, d)``; ``n`` if unproved."""
+    """Certified LP bound on k from the LP at exactly ``(n, d)``; ``n`` if unproved.
+
+    The value is remembered on disk, so later processes neither import SciPy nor solve.
+    """
+    key = f"{n},{d}"
+    known = _LP_MEMO.get(key)
+    if isinstance(known, int) and 0 <= known <= n:
+        return known
+    best = _kmax_lp_even_at_solved(n, d)
+    _LP_MEMO.put(key, best)
+    return best
+
+
+def _kmax_lp_even_at_solved(n: int, d: int) -> int:
     # Pick the side on which the LP optimum is small (better conditioned), falling back
     # to the other side; keep the best certified value. A failure proves nothing (k <= n).
     guess = min(_kmax_hamming(n, d), _kmax_griesmer(n, d), _kmax_singleton(n, d))

@@ -3,6 +3,9 @@
 
 from __future__ import annotations
 
+import os
+import tempfile
+
 import numpy as np
 import pytest
 from hypothesis import HealthCheck, settings
@@ -10,6 +13,10 @@ from hypothesis import HealthCheck, settings
 from gf2codes.code import Code
 
 from helpers import cyclic_generator
+
+# Memos of proved results (the certified LP values, gf2codes._diskcache) live in a
+# folder of this test session, never in the user's cache; subprocesses inherit it.
+os.environ["GF2CODES_CACHE_DIR"] = tempfile.mkdtemp(prefix="gf2codes-test-cache-")
 
 settings.register_profile(
     "default", deadline=None, suppress_health_check=[HealthCheck.too_slow], derandomize=True
