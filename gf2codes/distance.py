@@ -209,6 +209,18 @@ class _Best:
         return _unpack_word(self.word, self.n)
 
 
+def _settled(best_weight: int, lower: int, target: int | None) -> str | None:
+    """Why an enumeration may stop now (the proved lower bound and the lightest word
+    found settle the question), or None."""
+    if best_weight <= lower:
+        return "exact"
+    if target is not None and lower >= target:
+        return "target met"
+    if target is not None and best_weight < target:
+        return "below target"
+    return None
+
+
 # ------------------------------------------------------------------ Gray-code engine
 def _gray_layout(rows: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Split basis rows into outer rows (transposed) and a table of tail sums."""
@@ -511,13 +523,7 @@ def _bz_search(code: Code, clock: _Clock, best: _Best, target: int | None,
     sh = _Shared(clock, best)
 
     def settled() -> str | None:
-        if best.weight <= lower:
-            return "exact"
-        if target is not None and lower >= target:
-            return "target met"
-        if target is not None and best.weight < target:
-            return "below target"
-        return None
+        return _settled(best.weight, lower, target)
 
     def refresh_total() -> None:
         goal = best.weight if target is None else min(best.weight, target)
@@ -675,13 +681,7 @@ def _dual_search(code: Code, clock: _Clock, best: _Best, target: int | None,
     lower = start_lower
 
     def settled() -> str | None:
-        if best.weight <= lower:
-            return "exact"
-        if target is not None and lower >= target:
-            return "target met"
-        if target is not None and best.weight < target:
-            return "below target"
-        return None
+        return _settled(best.weight, lower, target)
 
     def scan(j: int, bucket: np.uint64, probe: bool) -> tuple[bool, int, bool]:
         """(complete, syndrome of a hit or -1, time ran out)."""
