@@ -1834,6 +1834,8 @@ class Catalog:
                     obj = json.loads(line)
                 except json.JSONDecodeError as exc:
                     raise ParseError(f"{where}: not valid JSON ({exc.msg}).") from None
+                except RecursionError:
+                    raise ParseError(f"{where}: the JSON is nested too deeply.") from None
                 rec = parse_entry_record(obj, where)
                 facts, prov = self._facts_for_import(rec, where, verify, time_limit, source)
             except (ParseError, ParameterError) as exc:

@@ -5,7 +5,8 @@ Three input formats, chosen by content and file name:
 * **text matrix** — one row per line, made of the characters ``0`` and ``1``;
   spaces, tabs and commas may separate the entries; ``#`` starts a comment that
   runs to the end of the line; blank lines are ignored.
-* **numpy** ``.npy`` — a two-axis integer or boolean array of 0s and 1s.
+* **numpy** ``.npy`` — a two-axis integer, boolean or float array of 0s and 1s
+  (a float array must hold exactly 0.0 and 1.0).
 * **code record** (JSON, ``.json``) — the project's own record of a code::
 
       {"record": "gf2codes/code", "version": 1, "n": 7, "k": 4,
@@ -17,13 +18,19 @@ Three input formats, chosen by content and file name:
   proved. Unknown keys are kept by the reader in :attr:`CodeRecord.extra`.
 
 Every parse error is a :class:`~gf2codes.exceptions.ParseError` whose message
-names the file and, for text, the line.
+names the file and, for text, the line. The file name ``-`` means standard input;
+pipes and devices are read like files. A matrix of more than
+:data:`MAX_ENTRIES` entries (rows times columns) is refused before it is expanded
+in memory; the environment variable ``GF2CODES_MAX_ENTRIES`` raises the limit.
 """
 
 from __future__ import annotations
 
+import io
 import json
+import math
 import os
+import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -44,11 +51,133 @@ __all__ = [
     "record_to_code",
     "write_code",
     "rows_to_strings",
+    "MAX_ENTRIES",
+    "max_entries",
+    "read_input_bytes",
+    "one_line",
 ]
 
 RECORD_KIND = "gf2codes/code"
 RECORD_VERSION = 1
 _SEPARATORS = str.maketrans("", "", " \t,;")
+
+#: Default limit on the entries (rows times columns) of a matrix read from a file:
+#: 2^25, about 33 million bits (a 5792 x 5792 matrix); see :func:`max_entries`.
+MAX_ENTRIES = 1 << 25
+_ENV_LIMIT = "GF2CODES_MAX_ENTRIES"
+#: A record nested deeper than this is refused (no code record nests beyond 4).
+_MAX_NESTING = 64
+
+
+def max_entries() -> int:
+    """The limit on matrix entries in force: ``GF2CODES_MAX_ENTRIES`` or :data:`MAX_ENTRIES`.
+
+    Raises
+    ------
+    ParameterError
+        If the environment variable is set but is not a positive integer.
+    """
+    text = os.environ.get(_ENV_LIMIT)
+    if text is None or not text.strip():
+        return MAX_ENTRIES
+    try:
+        value = int(text.strip(), 10)
+    except ValueError:
+        value = 0
+    if value < 1:
+        raise ParameterError(f"Environment variable {_ENV_LIMIT} must be a positive integer, "
+                             f"not {text!r}.")
+    return value
+
+
+def _max_bytes(limit: int) -> int:
+    """Bytes a file may have for a matrix of ``limit`` entries (separators, a header)."""
+    return 8 * limit + (1 << 20)
+
+
+def _too_large(source: str, what: str, limit: int) -> ParseError:
+    return ParseError(
+        f"{source}: {what}, more than the limit of {limit:,} matrix entries; set the "
+        f"environment variable {_ENV_LIMIT} to allow more."
+    )
+
+
+def read_input_bytes(path: str | os.PathLike[str], *, limit: int | None = None) -> bytes:
+    """The bytes of a file, a pipe, a device or (``-``) standard input, within limits.
+
+    Raises
+    ------
+    ParseError
+        When the file does not exist, is a folder, is empty, cannot be read, holds
+        NUL bytes outside a ``.npy`` file, or is larger than a matrix of ``limit``
+        entries can be (default: :func:`max_entries`).
+    """
+    limit = max_entries() if limit is None else limit
+    cap = _max_bytes(limit)
+    name = str(path)
+    if name == "-":
+        stream = sys.stdin.buffer
+        source = "<standard input>"
+        owned = False
+    else:
+        p = Path(path)
+        source = name
+        if not p.exists():
+            raise ParseError(f"{source}: no such file.")
+        if p.is_dir():
+            raise ParseError(f"{source}: is a folder, not a matrix file.")
+        try:
+            stream = open(p, "rb")  # noqa: SIM115 - closed below
+        except OSError as exc:
+            raise ParseError(f"{source}: cannot read ({exc.strerror or exc}).") from None
+        owned = True
+    chunks: list[bytes] = []
+    size = 0
+    try:
+        while True:
+            chunk = stream.read(1 << 20)
+            if not chunk:
+                break
+            if not chunks and not chunk.startswith(b"\x93NUMPY") and b"\0" in chunk:
+                raise ParseError(f"{source}: holds NUL bytes, so it is not a text matrix, "
+                                 ".npy file or JSON code record.")
+            size += len(chunk)
+            if size > cap:
+                raise _too_large(source, f"larger than {cap:,} bytes", limit)
+            chunks.append(chunk)
+    except OSError as exc:
+        raise ParseError(f"{source}: cannot read ({exc.strerror or exc}).") from None
+    finally:
+        if owned:
+            stream.close()
+    data = b"".join(chunks)
+    if not data:
+        raise ParseError(f"{source}: the file is empty.")
+    return data
+
+
+def one_line(text: object, *, extra: str = "") -> str:
+    """``text`` as inert data for a comment, a title or a header line.
+
+    Control characters (newlines, NUL, escape sequences, line and paragraph
+    separators, invisible format characters), the backslash, ``*`` (so ``*/``
+    cannot close a C comment) and every character of ``extra`` become visible
+    escapes ``\\xHH`` or ``\\uHHHH``; the result is a single line.
+
+    >>> one_line("evil */ int x; /*\\nrest")
+    'evil \\\\x2a/ int x; /\\\\x2a\\\\x0arest'
+    """
+    import unicodedata
+
+    out = []
+    for ch in str(text):
+        code = ord(ch)
+        if ch in "\\*" or ch in extra or unicodedata.category(ch) in ("Cc", "Cf", "Cs", "Zl",
+                                                                        "Zp"):
+            out.append(f"\\x{code:02x}" if code < 0x100 else f"\\u{code:04x}")
+        else:
+            out.append(ch)
+    return "".join(out)
 
 
 def parse_text_matrix(text: str, source: str = "<string>") -> np.ndarray:
@@ -124,15 +253,64 @@ def _strings_to_rows(rows: Any, source: str, key: str) -> np.ndarray:
         raise ParseError(str(exc).replace(", line ", ", row ")) from None
 
 
-def record_to_code(obj: Any, source: str = "<record>") -> CodeRecord:
-    """Turn a parsed JSON code record into a :class:`CodeRecord`."""
+def _nesting(obj: Any, depth: int = 0) -> int:
+    """Depth of nested lists and objects (stops counting past :data:`_MAX_NESTING`)."""
+    if depth > _MAX_NESTING or not isinstance(obj, (dict, list)):
+        return depth
+    items = obj.values() if isinstance(obj, dict) else obj
+    return max((_nesting(v, depth + 1) for v in items), default=depth + 1)
+
+
+def _distance_field(obj: dict[str, Any], key: str, source: str, n: int) -> int | None:
+    """A record's ``d``, ``d_lower`` or ``d_upper``: null, or an integer from 1 to n."""
+    value = obj.get(key)
+    if value is None:
+        return None
+    if isinstance(value, bool) or not isinstance(value, int):
+        raise ParseError(f"{source}: {key!r} must be an integer or null, not "
+                         f"{type(value).__name__} {_short(value)}.")
+    low = 1
+    if not low <= value <= n:
+        raise ParseError(f"{source}: {key!r} must be from {low} to n = {n}, not {value}.")
+    return value
+
+
+def _short(value: Any) -> str:
+    text = json.dumps(value) if not isinstance(value, str) else repr(value)
+    return text if len(text) <= 40 else text[:37] + "..."
+
+
+def _check_size(obj: dict[str, Any], source: str, limit: int) -> None:
+    """Refuse a record whose matrix exceeds ``limit`` entries before parsing it."""
+    rows = obj.get("generator", obj.get("parity_check"))
+    if isinstance(rows, list):
+        entries = sum(len(r) for r in rows if isinstance(r, str))
+        if entries > limit:
+            raise _too_large(source, f"the record's matrix has {entries:,} entries", limit)
+
+
+def record_to_code(obj: Any, source: str = "<record>", *, limit: int | None = None
+                   ) -> CodeRecord:
+    """Turn a parsed JSON code record into a :class:`CodeRecord`.
+
+    Every field is checked: the matrix (at most ``limit`` entries, default
+    :func:`max_entries`), ``n`` and ``k`` against the matrix, and ``d``,
+    ``d_lower``, ``d_upper`` (null or integers from 1 to n, in order).
+    """
     if not isinstance(obj, dict):
         raise ParseError(f"{source}: a code record must be a JSON object.")
+    if _nesting(obj) > _MAX_NESTING:
+        raise ParseError(f"{source}: the record is nested too deeply to be a code record.")
     kind = obj.get("record", RECORD_KIND)
     if kind != RECORD_KIND:
-        raise ParseError(f"{source}: 'record' must be {RECORD_KIND!r}, not {kind!r}.")
+        raise ParseError(f"{source}: 'record' must be {RECORD_KIND!r}, not {_short(kind)}.")
     version = obj.get("version", RECORD_VERSION)
-    if not isinstance(version, int) or version > RECORD_VERSION:
+    if isinstance(version, bool) or not isinstance(version, int):
+        raise ParseError(f"{source}: 'version' must be an integer, not "
+                         f"{type(version).__name__} {_short(version)}.")
+    if version < 1:
+        raise ParseError(f"{source}: 'version' must be at least 1, not {version}.")
+    if version > RECORD_VERSION:
         raise ParseError(
             f"{source}: record version {version!r} is newer than this gf2codes understands "
             f"({RECORD_VERSION}); upgrade gf2codes."
@@ -140,7 +318,12 @@ def record_to_code(obj: Any, source: str = "<record>") -> CodeRecord:
     recipe = obj.get("recipe") or []
     if not isinstance(recipe, list) or not all(isinstance(s, dict) for s in recipe):
         raise ParseError(f"{source}: 'recipe' must be a list of objects.")
-    meta = {"name": obj.get("name"), "recipe": recipe}
+    name = obj.get("name")
+    if name is not None and not isinstance(name, str):
+        raise ParseError(f"{source}: 'name' must be a string or null, not "
+                         f"{type(name).__name__}.")
+    _check_size(obj, source, max_entries() if limit is None else limit)
+    meta = {"name": name, "recipe": recipe}
     try:
         if "generator" in obj:
             code = Code(_strings_to_rows(obj["generator"], source, "generator"), **meta)
@@ -152,6 +335,9 @@ def record_to_code(obj: Any, source: str = "<record>") -> CodeRecord:
     except ParameterError as exc:
         raise ParseError(f"{source}: {exc}") from None
     for key in ("n", "k"):
+        if key in obj and (isinstance(obj[key], bool) or not isinstance(obj[key], int)):
+            raise ParseError(f"{source}: {key!r} must be an integer, not "
+                             f"{type(obj[key]).__name__} {_short(obj[key])}.")
         if key in obj and obj[key] != getattr(code, key):
             raise ParseError(
                 f"{source}: the record says {key} = {obj[key]} but its matrix gives "
@@ -159,61 +345,75 @@ def record_to_code(obj: Any, source: str = "<record>") -> CodeRecord:
             )
     known = {"record", "version", "n", "k", "generator", "parity_check", "d", "d_lower",
              "d_upper", "name", "recipe"}
+    d, lo, hi = (_distance_field(obj, key, source, code.n) for key in ("d", "d_lower",
+                                                                       "d_upper"))
+    if lo is not None and hi is not None and lo > hi:
+        raise ParseError(f"{source}: 'd_lower' = {lo} is greater than 'd_upper' = {hi}.")
+    if d is not None and ((lo is not None and d < lo) or (hi is not None and d > hi)):
+        raise ParseError(f"{source}: 'd' = {d} lies outside 'd_lower'..'d_upper' = "
+                         f"{lo}..{hi}.")
     return CodeRecord(
         code=code,
-        d=obj.get("d"),
-        d_lower=obj.get("d_lower"),
-        d_upper=obj.get("d_upper"),
+        d=d,
+        d_lower=lo,
+        d_upper=hi,
         extra={k: v for k, v in obj.items() if k not in known},
     )
 
 
-def read_matrix_file(path: str | os.PathLike[str]) -> np.ndarray:
-    """Read a text or ``.npy`` matrix file into a ``uint8`` 0/1 array.
-
-    Raises
-    ------
-    ParseError
-        Naming the file: missing, a folder, empty, unreadable (permission denied...) or
-        not a 0/1 matrix.
-    """
-    p = Path(path)
+def _parse_npy(data: bytes, source: str, limit: int) -> np.ndarray:
+    buf = io.BytesIO(data)
     try:
-        return _read_matrix_file(p)
-    except OSError as exc:
-        raise _cannot_read(p, exc) from None
-
-
-def _read_matrix_file(p: Path) -> np.ndarray:
-    if not p.exists():
-        raise ParseError(f"{p}: no such file.")
-    if p.is_dir():
-        raise ParseError(f"{p}: is a folder, not a matrix file.")
-    if p.stat().st_size == 0:
-        raise ParseError(f"{p}: the file is empty.")
-    with open(p, "rb") as fh:
-        head = fh.read(6)
-    if head == b"\x93NUMPY":
-        try:
-            arr = np.load(p, allow_pickle=False)
-        except (ValueError, OSError) as exc:
-            raise ParseError(f"{p}: not a readable .npy file ({exc}).") from None
-        if arr.ndim != 2:
-            raise ParseError(f"{p}: the array must have 2 axes, not {arr.ndim}.")
-        if arr.dtype.kind not in "iub" or (arr.size and (arr.min() < 0 or arr.max() > 1)):
-            raise ParseError(f"{p}: the array must hold only 0 and 1.")
-        if 0 in arr.shape:
-            raise ParseError(f"{p}: the array is empty (shape {arr.shape}).")
-        return np.ascontiguousarray(arr, dtype=np.uint8)
+        version = np.lib.format.read_magic(buf)
+        if version == (1, 0):
+            shape, _, dtype = np.lib.format.read_array_header_1_0(buf)
+        else:
+            shape, _, dtype = np.lib.format.read_array_header_2_0(buf)
+    except (ValueError, OSError, SyntaxError) as exc:
+        raise ParseError(f"{source}: not a readable .npy file ({exc}).") from None
+    if len(shape) != 2:
+        raise ParseError(f"{source}: the array must have 2 axes, not {len(shape)}.")
+    if 0 in shape:
+        raise ParseError(f"{source}: the array is empty (shape {tuple(shape)}).")
+    if math.prod(shape) > limit:
+        raise _too_large(source, f"the array has {shape[0]:,} x {shape[1]:,} entries", limit)
+    if dtype.kind not in "iubf":
+        raise ParseError(f"{source}: the array must hold only 0 and 1, not {dtype} values.")
     try:
-        text = p.read_text(encoding="utf-8")
+        arr = np.load(io.BytesIO(data), allow_pickle=False)
+    except (ValueError, OSError, EOFError) as exc:
+        raise ParseError(f"{source}: not a readable .npy file ({exc}).") from None
+    if arr.dtype.kind == "f":
+        ok = bool(np.all((arr == 0.0) | (arr == 1.0)))
+    else:
+        ok = arr.dtype.kind == "b" or bool(arr.min() >= 0 and arr.max() <= 1)
+    if not ok:
+        raise ParseError(f"{source}: the array must hold only 0 and 1.")
+    return np.ascontiguousarray(arr, dtype=np.uint8)
+
+
+def _source_name(path: str | os.PathLike[str]) -> str:
+    return "<standard input>" if str(path) == "-" else str(path)
+
+
+def _parse_matrix_bytes(data: bytes, source: str, limit: int) -> np.ndarray:
+    if data.startswith(b"\x93NUMPY"):
+        return _parse_npy(data, source, limit)
+    try:
+        text = data.decode("utf-8")
     except UnicodeDecodeError:
-        raise ParseError(f"{p}: not a text matrix, .npy file or JSON code record.") from None
-    return parse_text_matrix(text, source=str(p))
+        raise ParseError(f"{source}: not a text matrix, .npy file or JSON code record.") from None
+    M = parse_text_matrix(text, source=source)
+    if M.size > limit:
+        raise _too_large(source, f"the matrix has {M.shape[0]:,} x {M.shape[1]:,} entries",
+                         limit)
+    return M
 
 
-def _cannot_read(p: Path, exc: OSError) -> ParseError:
-    return ParseError(f"{p}: cannot read ({exc.strerror or exc}).")
+def read_matrix_file(path: str | os.PathLike[str]) -> np.ndarray:
+    """Read a text or ``.npy`` matrix file (``-``: standard input) into a ``uint8`` 0/1 array."""
+    limit = max_entries()
+    return _parse_matrix_bytes(read_input_bytes(path, limit=limit), _source_name(path), limit)
 
 
 def read_code(path: str | os.PathLike[str], *, parity_check: bool = False) -> CodeRecord:
@@ -222,28 +422,30 @@ def read_code(path: str | os.PathLike[str], *, parity_check: bool = False) -> Co
     Parameters
     ----------
     path : path-like
+        A file, a pipe or device, or ``-`` for standard input. The format is told
+        by the content: the ``.npy`` magic bytes, a ``{`` after any white space
+        (a JSON record), else the text matrix format.
     parity_check : bool
         Read a matrix file as a parity-check matrix ``H`` (ignored for records,
         which say which matrix they hold).
     """
-    p = Path(path)
-    try:
-        if p.exists() and p.is_file() and p.stat().st_size:
-            with open(p, "rb") as fh:
-                start = fh.read(64).lstrip()
-            if start.startswith(b"{"):
-                try:
-                    obj = json.loads(p.read_text(encoding="utf-8"))
-                except (json.JSONDecodeError, UnicodeDecodeError) as exc:
-                    raise ParseError(f"{p}: not valid JSON ({exc}).") from None
-                return record_to_code(obj, source=str(p))
-    except OSError as exc:  # permission denied, a device error...
-        raise _cannot_read(p, exc) from None
-    M = read_matrix_file(p)
+    limit = max_entries()
+    source = _source_name(path)
+    data = read_input_bytes(path, limit=limit)
+    if data.lstrip(b" \t\r\n\f\v").startswith(b"{"):
+        try:
+            obj = json.loads(data.decode("utf-8"))
+        except (json.JSONDecodeError, UnicodeDecodeError) as exc:
+            raise ParseError(f"{source}: not valid JSON ({exc}).") from None
+        except RecursionError:
+            raise ParseError(f"{source}: the JSON is nested too deeply to be a code "
+                             "record.") from None
+        return record_to_code(obj, source=source, limit=limit)
+    M = _parse_matrix_bytes(data, source, limit)
     try:
         code = Code.from_parity_check(M) if parity_check else Code(M)
     except ParameterError as exc:
-        raise ParseError(f"{p}: {exc}") from None
+        raise ParseError(f"{source}: {exc}") from None
     return CodeRecord(code=code)
 
 
@@ -287,7 +489,7 @@ def _write_code(code: Code, p: Path, fmt: str, record_fields: dict[str, Any]) ->
     if fmt == "text":
         header = f"# [{code.n}, {code.k}] generator matrix"
         if code.name:
-            header += f": {code.name}"
+            header += f": {one_line(code.name)}"  # one line, whatever the name holds
         p.write_text(header + "\n" + "\n".join(rows_to_strings(code.G)) + "\n", encoding="utf-8")
     elif fmt == "npy":
         np.save(p, np.asarray(code.G, dtype=np.uint8))
