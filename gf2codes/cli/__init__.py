@@ -7,6 +7,17 @@ functions, ``register(subparsers)`` that adds its parser and ``run(args) -> int`
 exit status 2. Ctrl-C gives exit status 130, after the command has had the chance
 to report what it found. Any other exception is a bug: it is reported as one line
 with exit status 3 (``GF2CODES_DEBUG=1`` shows the traceback instead).
+
+Broken pipes, one rule for every command: when the reader of standard output goes
+away early (``gf2codes catalog list | head -1``), the command stops writing,
+prints nothing more and exits with status 0, as if the output had been read.
+Whatever a message echoes from the input (file names, code names) is printed
+with control characters made visible (:func:`~gf2codes.cli._common.clean`).
+
+Exit statuses: 0 success; 1 ``equivalent``: the codes are not equivalent, and
+``catalog import``: some lines were rejected (each is named on standard error);
+2 bad input or an impossible request; 3 an internal error; 4 ``equivalent``:
+undecided within the limits; 130 interrupted (Ctrl-C).
 """
 
 from __future__ import annotations
@@ -60,7 +71,9 @@ class _Parser(argparse.ArgumentParser):
     """An argument parser whose errors are one line and exit status 2."""
 
     def error(self, message: str) -> None:  # type: ignore[override]
-        self.exit(2, f"{self.prog}: error: {message}\n")
+        from ._common import clean
+
+        self.exit(2, f"{self.prog}: error: {clean(message)}\n")
 
 
 def _chosen_command(argv: Sequence[str]) -> str | None:
@@ -108,20 +121,45 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         return int(module.run(args))  # type: ignore[attr-defined]
     except Gf2CodesError as exc:
-        print(f"gf2codes {args.command}: error: {exc}", file=sys.stderr)
+        print(f"gf2codes {args.command}: error: {_clean(exc)}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         print(f"gf2codes {args.command}: interrupted", file=sys.stderr)
         return 130
-    except BrokenPipeError:  # output piped into `head` and closed early
+    except BrokenPipeError:  # output piped into `head` and closed early: see above
+        _silence_stdout()
         return 0
+    except RecursionError:  # a hostile, deeply nested input that no check caught
+        print(f"gf2codes {args.command}: error: the input is nested too deeply to be "
+              "read.", file=sys.stderr)
+        return 2
+    except MemoryError:
+        print(f"gf2codes {args.command}: error: not enough memory for this input; "
+              "try a smaller one.", file=sys.stderr)
+        return 2
     except Exception as exc:  # a bug: one line for the user, the traceback on request
         if os.environ.get("GF2CODES_DEBUG"):
             raise
-        print(f"gf2codes {args.command}: internal error ({type(exc).__name__}: {exc}); "
-              "please report it. Run with GF2CODES_DEBUG=1 to see the traceback.",
-              file=sys.stderr)
+        print(f"gf2codes {args.command}: internal error ({type(exc).__name__}: "
+              f"{_clean(exc)}); please report it. Run with GF2CODES_DEBUG=1 to see the "
+              "traceback.", file=sys.stderr)
         return 3
+
+
+def _clean(text: object) -> str:
+    from ._common import clean
+
+    return clean(text)
+
+
+def _silence_stdout() -> None:
+    """Point standard output at the null device, so that the interpreter's final
+    flush does not report the closed pipe a second time."""
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError, AttributeError):  # no real stdout (tests capture it)
+        pass
 
 
 def entry_point() -> None:

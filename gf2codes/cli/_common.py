@@ -2,19 +2,187 @@
 
 from __future__ import annotations
 
+import argparse
 import json
+import math
+import os
 import sys
+import unicodedata
+from collections.abc import Callable
+from pathlib import Path
 from typing import Any
 
 from rich.console import Console
 
-from ..exceptions import ParameterError
+from ..exceptions import Gf2CodesError, ParameterError
 
 __all__ = ["console", "err_console", "print_json", "parse_range", "parse_int", "parse_float",
-           "add_json_flag", "add_executor_options", "executor_from_args", "ProgressBar"]
+           "add_json_flag", "add_executor_options", "executor_from_args", "ProgressBar",
+           "clean", "seconds_arg", "seed_arg", "count_arg", "probability_arg", "address_arg",
+           "check_output_path", "write_output", "MAX_SECONDS", "MAX_SEED"]
 
-console = Console(highlight=False)
-err_console = Console(stderr=True, highlight=False)
+#: The largest time limit accepted (about 31 years): larger values are typing mistakes.
+MAX_SECONDS = 1e9
+#: Seeds are integers from 0 to 2^63 - 1 (what numpy's generators take).
+MAX_SEED = (1 << 63) - 1
+
+
+def clean(text: object) -> str:
+    """``text`` made safe to print on a terminal: one line, no control characters.
+
+    Control characters (escape sequences, newlines, NUL, ...) become visible
+    escapes such as ``\\x1b`` and ``\\n``, so that a hostile file or code name can
+    neither split an error line nor drive the terminal.
+
+    >>> clean("a\\x1b[31mb\\nc")
+    'a\\\\x1b[31mb\\\\nc'
+    """
+    out = []
+    for ch in str(text):
+        if ch == "\n":
+            out.append("\\n")
+        elif ch == "\r":
+            out.append("\\r")
+        elif ch == "\t":
+            out.append("\\t")
+        elif unicodedata.category(ch) in ("Cc", "Cf", "Zl", "Zp"):
+            code = ord(ch)
+            out.append(f"\\x{code:02x}" if code < 0x100 else f"\\u{code:04x}")
+        else:
+            out.append(ch)
+    return "".join(out)
+
+
+def seconds_arg(text: str) -> float:
+    """argparse type of a time limit: a finite number of seconds, > 0 and <= 10^9."""
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"must be a number of seconds, not {clean(text)!r}"
+                                         ) from None
+    if not math.isfinite(value) or not 0 < value <= MAX_SECONDS:
+        raise argparse.ArgumentTypeError(
+            f"must be a number of seconds above 0 and at most {MAX_SECONDS:.0e}, "
+            f"not {clean(text)!r}")
+    return value
+
+
+def seed_arg(text: str) -> int:
+    """argparse type of a seed: an integer from 0 to 2^63 - 1."""
+    try:
+        value = int(text, 10)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"must be an integer, not {clean(text)!r}") from None
+    if not 0 <= value <= MAX_SEED:
+        raise argparse.ArgumentTypeError(f"must be from 0 to 2^63 - 1, not {clean(text)!r}")
+    return value
+
+
+def count_arg(minimum: int, maximum: int) -> Callable[[str], int]:
+    """argparse type of an integer from ``minimum`` to ``maximum``."""
+
+    def parse(text: str) -> int:
+        try:
+            value = int(text, 10)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"must be an integer, not {clean(text)!r}"
+                                             ) from None
+        if not minimum <= value <= maximum:
+            raise argparse.ArgumentTypeError(
+                f"must be from {minimum:,} to {maximum:,}, not {clean(text)!r}")
+        return value
+
+    return parse
+
+
+def probability_arg(text: str) -> float:
+    """argparse type of a probability strictly between 0 and 1."""
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"must be a number, not {clean(text)!r}") from None
+    if not 0 < value < 1:  # also false for NaN
+        raise argparse.ArgumentTypeError(f"must lie strictly between 0 and 1, not "
+                                         f"{clean(text)!r}")
+    return value
+
+
+def address_arg(text: str) -> str:
+    """argparse type of a Dask scheduler address: ``[tcp://|tls://]HOST:PORT``."""
+    rest = text
+    for scheme in ("tcp://", "tls://"):
+        if text.startswith(scheme):
+            rest = text[len(scheme):]
+            break
+    else:
+        if "://" in text:
+            raise argparse.ArgumentTypeError(
+                f"must start with tcp:// or tls://, not {clean(text)!r}")
+    host, sep, port = rest.rpartition(":")
+    if not sep or not host or not port.isdigit() or not 0 < int(port) < 65536:
+        raise argparse.ArgumentTypeError(
+            f"must be HOST:PORT with a port from 1 to 65535 (e.g. tcp://head:8786), not "
+            f"{clean(text)!r}")
+    if any(ch.isspace() or unicodedata.category(ch) == "Cc" for ch in host):
+        raise argparse.ArgumentTypeError(f"the host name holds spaces or control "
+                                         f"characters: {clean(text)!r}")
+    return text
+
+
+def check_output_path(path: str | os.PathLike[str] | None, option: str = "--output") -> None:
+    """Refuse, before any work, an output path whose folder does not exist.
+
+    Raises
+    ------
+    ParameterError
+        Naming the option and the path.
+    """
+    if path is None or str(path) == "-":
+        return
+    p = Path(path)
+    if p.is_dir():
+        raise ParameterError(f"Argument {option!r} must be a file name, not the folder "
+                             f"{clean(p)!r}.")
+    parent = p.parent
+    if not parent.is_dir():
+        raise ParameterError(f"Argument {option!r} names a file in {clean(parent)!r}, which "
+                             "is not an existing folder.")
+
+
+def write_output(write: Callable[[], Any], path: str | os.PathLike[str],
+                 fallback: Callable[[], None] | None = None) -> Any:
+    """Call ``write()``; turn a failed write into one line, after ``fallback()``.
+
+    ``fallback`` prints what was computed (so a failed write loses nothing) before
+    the error is raised as a :class:`Gf2CodesError`.
+    """
+    try:
+        return write()
+    except OSError as exc:
+        if fallback is not None:
+            fallback()
+        reason = exc.strerror or type(exc).__name__
+        kept = " (the result is printed above)" if fallback is not None else ""
+        raise _WriteError(f"cannot write {clean(path)!r}: {reason}{kept}.") from None
+
+
+class _WriteError(Gf2CodesError, OSError):
+    """Writing an output file failed."""
+
+class _Console(Console):
+    """A rich console that leaves a closed pipe to :func:`gf2codes.cli.main`.
+
+    rich's default exits with status 1 when the reader of standard output goes
+    away; gf2codes has one rule for every command instead (see ``main``).
+    """
+
+    def on_broken_pipe(self) -> None:
+        self.quiet = True
+        raise BrokenPipeError("standard output was closed by its reader")
+
+
+console = _Console(highlight=False)
+err_console = _Console(stderr=True, highlight=False)
 
 
 def add_json_flag(parser) -> None:
@@ -40,25 +208,30 @@ def parse_int(name: str, text: str) -> int:
     try:
         return int(text, 10)
     except (TypeError, ValueError):
-        raise ParameterError(f"Argument {name!r} must be an integer, not {text!r}.") from None
+        raise ParameterError(f"Argument {name!r} must be an integer, not {clean(text)!r}."
+                             ) from None
 
 
 def parse_float(name: str, text: str) -> float:
     """A number option given as text, or a one-line :class:`ParameterError`."""
     try:
-        return float(text)
+        value = float(text)
     except (TypeError, ValueError):
-        raise ParameterError(f"Argument {name!r} must be a number, not {text!r}.") from None
+        raise ParameterError(f"Argument {name!r} must be a number, not {clean(text)!r}."
+                             ) from None
+    if not math.isfinite(value):
+        raise ParameterError(f"Argument {name!r} must be a finite number, not {clean(text)!r}.")
+    return value
 
 
 def add_executor_options(parser, what: str) -> None:
     """``--pool N``, ``--scheduler ADDRESS`` and ``--dask-local N``: where ``what`` runs."""
-    parser.add_argument("--pool", type=int, metavar="N",
+    parser.add_argument("--pool", type=count_arg(1, 4096), metavar="N",
                         help=f"run {what} on a local pool of N processes")
-    parser.add_argument("--scheduler", metavar="ADDRESS",
+    parser.add_argument("--scheduler", metavar="ADDRESS", type=address_arg,
                         help=f"run {what} on a running Dask cluster (e.g. tcp://head:8786; "
                              "needs gf2codes[dask])")
-    parser.add_argument("--dask-local", type=int, metavar="N",
+    parser.add_argument("--dask-local", type=count_arg(1, 4096), metavar="N",
                         help=f"start a local Dask cluster of N worker processes for {what}")
 
 
@@ -83,11 +256,19 @@ def parse_range(name: str, text: str) -> range:
             lo_i = hi_i = int(text)
     except ValueError:
         raise ParameterError(
-            f"Argument {name!r} must be an integer or a range like 1-40, not {text!r}."
+            f"Argument {name!r} must be an integer or a range like 1-40, not {clean(text)!r}."
         ) from None
     if lo_i > hi_i:
-        raise ParameterError(f"Argument {name!r} must be an increasing range, not {text!r}.")
+        raise ParameterError(f"Argument {name!r} must be an increasing range, not "
+                             f"{clean(text)!r}.")
+    if lo_i < 0 or hi_i > MAX_RANGE_VALUE:
+        raise ParameterError(f"Argument {name!r} must lie from 0 to {MAX_RANGE_VALUE:,}, not "
+                             f"{clean(text)!r}.")
     return range(lo_i, hi_i + 1)
+
+
+#: The largest value a range option (lengths, dimensions, distances) accepts.
+MAX_RANGE_VALUE = 1 << 20
 
 
 class ProgressBar:
