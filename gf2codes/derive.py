@@ -504,12 +504,16 @@ _TAKES_COORDS = {"puncture", "shorten"}
 _ITEM = re.compile(r"^(\d+)(?:-(\d+))?$")
 
 
-def parse_coordinates(text: str) -> list[int]:
+def parse_coordinates(text: str, n: int | None = None) -> list[int]:
     """Parse ``"0-7,12,20-21"`` into ``[0, 1, ..., 7, 12, 20, 21]`` (order kept).
+
+    With the length ``n`` given, every coordinate is checked to lie below ``n``
+    before any range is expanded (so ``0-999999999999`` is refused at once).
 
     >>> parse_coordinates("0-3,7")
     [0, 1, 2, 3, 7]
     """
+    limit = (1 << 24) if n is None else n
     out: list[int] = []
     for item in str(text).replace(" ", "").split(","):
         m = _ITEM.match(item)
@@ -522,15 +526,24 @@ def parse_coordinates(text: str) -> list[int]:
         hi = int(m.group(2)) if m.group(2) else lo
         if hi < lo:
             raise ParseError(f"<coordinates>: the range {item!r} must be increasing.")
+        if hi >= limit:
+            where = (f"the length is {n}, so coordinates run from 0 to {n - 1}"
+                     if n is not None else f"coordinates must be below {limit:,}")
+            raise ParseError(f"<coordinates>: {item!r} is out of range; {where}.")
+        if len(out) + hi - lo + 1 > limit:
+            raise ParseError(f"<coordinates>: {text!r} lists more than {limit:,} "
+                             "coordinates.")
         out.extend(range(lo, hi + 1))
     return out
 
 
-def parse_operations(tokens: Sequence[str]) -> list[dict[str, Any]]:
+def parse_operations(tokens: Sequence[str], n: int | None = None) -> list[dict[str, Any]]:
     """Parse command-line words into recipe steps.
 
     ``puncture`` and ``shorten`` take the next word as a coordinate list; the
-    other operations take no argument.
+    other operations take no argument. ``n``, the length of the code the first
+    operation applies to, bounds the coordinates of that first list (later lists
+    are checked when applied, since the length changes on the way).
 
     >>> parse_operations(["shorten", "0-2", "puncture", "5,7", "extend"])
     [{'op': 'shorten', 'coords': [0, 1, 2]}, {'op': 'puncture', 'coords': [5, 7]}, \
@@ -556,7 +569,8 @@ def parse_operations(tokens: Sequence[str]) -> list[dict[str, Any]]:
                 raise ParseError(
                     f"<operations>: {word!r} needs a coordinate list such as 0-7 or 3,5."
                 )
-            steps.append({"op": word, "coords": parse_coordinates(tokens[i + 1])})
+            steps.append({"op": word, "coords": parse_coordinates(
+                tokens[i + 1], n if not steps else None)})
             i += 2
         else:
             steps.append({"op": word})

@@ -14,7 +14,14 @@ from typing import Any
 from ..code import Code
 from ..exceptions import ParameterError
 from ..families import FAMILIES, Family
-from ._common import add_json_flag, print_json
+from ._common import (
+    add_json_flag,
+    check_output_path,
+    clean,
+    print_json,
+    seconds_arg,
+    write_output,
+)
 from ._text import matrix_block
 
 __all__ = ["register", "run", "describe_distance", "add_output_flags", "emit"]
@@ -53,7 +60,7 @@ def add_output_flags(parser: argparse.ArgumentParser) -> None:
                              "else text)")
     parser.add_argument("--verify", action="store_true",
                         help="compute the minimum distance and print the full verification")
-    parser.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
+    parser.add_argument("--time-limit", type=seconds_arg, default=None, metavar="SECONDS",
                         help="time limit for --verify")
     add_json_flag(parser)
 
@@ -79,8 +86,15 @@ def emit(code: Code, args: argparse.Namespace, lines: list[str],
     if args.output:
         fmt = args.format or {".npy": "npy", ".json": "json"}.get(
             Path(args.output).suffix.lower(), "text")
-        written = str(formats.write_code(code, args.output, fmt,
-                                         **(extra if fmt == "json" else {})))
+
+        def fallback() -> None:  # the write failed: print the code, so nothing is lost
+            _print_lines(lines + [f"generator matrix ({code.k} x {code.n}):"]
+                         + formats.rows_to_strings(code.G))
+
+        written = str(write_output(
+            lambda: formats.write_code(code, args.output, fmt,
+                                       **(extra if fmt == "json" else {})),
+            args.output, fallback))
     if args.verify:
         from ._verify import report  # the lead's module; imported only when asked for
 
@@ -109,7 +123,8 @@ def emit(code: Code, args: argparse.Namespace, lines: list[str],
 
 
 def _print_lines(lines: list[str]) -> None:
-    sys.stdout.write("\n".join(lines) + "\n")
+    # names and file names come from the input: no control characters reach the terminal
+    sys.stdout.write("\n".join(clean(line) for line in lines) + "\n")
     sys.stdout.flush()
 
 
@@ -184,6 +199,7 @@ def run(args: argparse.Namespace) -> int:
             raise ParameterError("Name a FAMILY to build, or use --list to see them.")
         return _list(args.list_json or bool(getattr(args, "json", False)))
     family = FAMILIES[args.family]
+    check_output_path(args.output)
     kwargs = {a.name: getattr(args, a.name) for a in family.arguments}
     code = family.build(**kwargs)
     return emit(code, args, _summary(code))

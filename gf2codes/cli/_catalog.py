@@ -25,7 +25,16 @@ from typing import Any
 from rich.console import Console
 
 from ..exceptions import CatalogError, ParameterError, TooExpensiveError, check_int
-from ._common import parse_range, print_json
+from ._common import (
+    check_output_path,
+    clean,
+    count_arg,
+    parse_range,
+    print_json,
+    seconds_arg,
+    seed_arg,
+    write_output,
+)
 from ._text import length_grid, matrix_block, triple_text, weight_text
 
 # Plain text: codes print as [n, k, d], which rich would take for markup.
@@ -64,13 +73,13 @@ def register(subparsers: Any) -> None:
     p.add_argument("file", metavar="FILE", help="text matrix, .npy or JSON code record")
     p.add_argument("--parity-check", action="store_true",
                    help="read a matrix file as a parity-check matrix")
-    p.add_argument("--time-limit", type=float, metavar="S",
+    p.add_argument("--time-limit", type=seconds_arg, metavar="S",
                    help="seconds for proving d (default: no limit, refuse if too costly)")
     p.add_argument("--allow-interval", action="store_true",
                    help="store the proved interval when d cannot be proved in time")
     p.add_argument("--source", default="file",
                    help="what produced the code: file (default), family, search, ...")
-    p.add_argument("--seed", type=int, help="the seed of the search that found it")
+    p.add_argument("--seed", type=seed_arg, help="the seed of the search that found it")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("list", help="list stored entries")
@@ -79,7 +88,7 @@ def register(subparsers: Any) -> None:
     _common_options(p, suppress=True)
 
     p = sub.add_parser("show", help="an entry: its code, recipes and proof")
-    p.add_argument("id", type=int, metavar="ID")
+    p.add_argument("id", type=count_arg(1, (1 << 63) - 1), metavar="ID")
     _common_options(p, suppress=True)
 
     p = sub.add_parser(
@@ -89,12 +98,12 @@ def register(subparsers: Any) -> None:
                     "distance; --n --d: the one with the most data bits. Codes made from "
                     "stored ones (shortened, punctured, extended, with zero coordinates "
                     "appended, subcodes) count, and say so.")
-    p.add_argument("--n", type=int)
-    p.add_argument("--k", type=int)
-    p.add_argument("--d", type=int)
+    p.add_argument("--n", type=count_arg(1, 1 << 20))
+    p.add_argument("--k", type=count_arg(1, 1 << 20))
+    p.add_argument("--d", type=count_arg(1, 1 << 20))
     p.add_argument("--rows", action="store_true",
                    help="also print the generator rows, as a matrix file")
-    p.add_argument("--prove-time", type=float, default=2.0, metavar="S",
+    p.add_argument("--prove-time", type=seconds_arg, default=2.0, metavar="S",
                    help="seconds for proving the exact d of a derived answer (0: do not)")
     _common_options(p, suppress=True)
 
@@ -116,12 +125,16 @@ def register(subparsers: Any) -> None:
                    help="leave out dates and versions (the format of the shipped catalog)")
     _common_options(p, suppress=True)
 
-    p = sub.add_parser("import", help="read JSON-lines records (idempotent)")
+    p = sub.add_parser("import", help="read JSON-lines records (idempotent)",
+                       description="Read JSON-lines records into the catalog. Exit status 0 "
+                                   "when every line was taken, 1 when some lines were "
+                                   "rejected (each is named on standard error), 2 on bad "
+                                   "input.")
     p.add_argument("file", metavar="FILE", help="JSON lines; '-' for standard input")
     p.add_argument("--trust", action="store_true",
                    help="do not re-prove the records: check them cheaply (a contradiction "
                         "is refused) and keep what is not proved as a claim")
-    p.add_argument("--time-limit", type=float, default=10.0, metavar="S",
+    p.add_argument("--time-limit", type=seconds_arg, default=10.0, metavar="S",
                    help="seconds per record for re-proving d when the weights are too costly")
     _common_options(p, suppress=True)
 
@@ -130,14 +143,14 @@ def register(subparsers: Any) -> None:
         description="Prove the minimum distance of entries whose d is only claimed (trusted "
                     "imports, the shipped seed, entries stored before provenance was "
                     "recorded). A proof replaces the claim; a claim found false is corrected.")
-    p.add_argument("ids", metavar="ID", nargs="*", type=int,
+    p.add_argument("ids", metavar="ID", nargs="*", type=count_arg(1, (1 << 63) - 1),
                    help="entries to prove (default: every entry not proved here)")
-    p.add_argument("--time-limit", type=float, default=10.0, metavar="S",
+    p.add_argument("--time-limit", type=seconds_arg, default=10.0, metavar="S",
                    help="seconds per entry (default 10)")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("remove", help="delete an entry and its recipes")
-    p.add_argument("id", type=int, metavar="ID")
+    p.add_argument("id", type=count_arg(1, (1 << 63) - 1), metavar="ID")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("info", help="where the catalog is and what it holds")
@@ -422,11 +435,13 @@ def _table(cat, args) -> int:
 def _export(cat, args) -> int:
     filters = {"n": _range("n", args.n), "k": _range("k", args.k), "d": _range("d", args.d)}
     if args.output:
-        try:
+        check_output_path(args.output)
+
+        def write() -> int:
             with open(args.output, "w", encoding="utf-8") as fh:
-                count = cat.export(fh, stamps=not args.no_stamps, **filters)
-        except OSError as exc:
-            raise CatalogError(f"cannot write {args.output!r}: {exc.strerror}.") from None
+                return int(cat.export(fh, stamps=not args.no_stamps, **filters))
+
+        count = write_output(write, args.output)
         msg = {"exported": count, "file": args.output}
         if args.json:
             print_json(msg)
@@ -438,18 +453,15 @@ def _export(cat, args) -> int:
 
 
 def _import(cat, args) -> int:
-    if args.file == "-":
-        lines = sys.stdin.read().splitlines()
-        source = "<stdin>"
-    else:
-        try:
-            with open(args.file, encoding="utf-8") as fh:
-                lines = fh.read().splitlines()
-        except OSError as exc:
-            raise CatalogError(f"{args.file}: cannot read ({exc.strerror}).") from None
-        except UnicodeDecodeError:
-            raise CatalogError(f"{args.file}: not a text file of JSON lines.") from None
-        source = args.file
+    from ..formats import read_input_bytes
+
+    # The same reader as matrix files: standard input, pipes, size limits, NUL bytes.
+    data = read_input_bytes(args.file)
+    source = "<stdin>" if args.file == "-" else args.file
+    try:
+        lines = data.decode("utf-8").splitlines()
+    except UnicodeDecodeError:
+        raise CatalogError(f"{clean(args.file)}: not a text file of JSON lines.") from None
     report = cat.import_records(lines, source=source, verify=not args.trust,
                                 time_limit=args.time_limit)
     if args.json:

@@ -33,14 +33,24 @@ from ..decoding import (
     undetected_error_probability,
 )
 from ..exceptions import ParameterError, TooExpensiveError, check_int
-from ..formats import read_code
+from ..formats import one_line, read_code
 from ..weights import (
     DEFAULT_MAX_ENUMERATION,
     minimum_weight_from_distribution,
     weight_distribution,
     weight_enumeration_cost,
 )
-from ._common import ProgressBar, add_json_flag, console, err_console, print_json
+from ._common import (
+    ProgressBar,
+    add_json_flag,
+    clean,
+    console,
+    count_arg,
+    err_console,
+    print_json,
+    probability_arg,
+    seed_arg,
+)
 from ._text import weight_text
 
 __all__ = ["register", "run", "parse_p", "analyse"]
@@ -74,10 +84,10 @@ def register(sub: argparse._SubParsersAction) -> None:
                    help="the files hold parity-check matrices, not generator matrices")
     p.add_argument("--p", nargs="+", metavar="P", default=None,
                    help="crossover probabilities: numbers or ranges LO:HI:COUNT (log-spaced)")
-    p.add_argument("--simulate", type=int, metavar="N",
+    p.add_argument("--simulate", type=count_arg(1, 10**12), metavar="N",
                    help="also estimate by Monte Carlo with N codewords per p")
-    p.add_argument("--seed", type=int, default=0, help="seed of the simulation (default 0)")
-    p.add_argument("--confidence", type=float, default=0.99,
+    p.add_argument("--seed", type=seed_arg, default=0, help="seed of the simulation (default 0)")
+    p.add_argument("--confidence", type=probability_arg, default=0.99,
                    help="confidence level of the simulation intervals (default 0.99)")
     p.add_argument("--plot", metavar="FILE.png",
                    help="draw the block-error curves of every code into an image file")
@@ -277,9 +287,9 @@ def _fmt(x: float | None, digits: int = 4) -> str:
 def _print(rep: dict[str, Any], args: argparse.Namespace) -> None:
     n, k, d, t = rep["n"], rep["k"], rep["d"], rep["t"]
     params = f"n={n} k={k} " + (f"d={d} t={t}" if d is not None else "d not proved")
-    title = f"{rep['source'] or rep['name'] or 'code'}  BSC  {params}"
+    title = clean(f"{rep['source'] or rep['name'] or 'code'}  BSC  {params}")
     if rep["name"] and rep["source"]:
-        title += f"  ({rep['name']})"
+        title += clean(f"  ({rep['name']})")
     t_text = f"t = {t}" if t is not None else "t unknown"
     console.print(escape(title), style="bold", soft_wrap=True)
     table = Table(box=box.SIMPLE_HEAD, pad_edge=False)
@@ -328,7 +338,7 @@ def _plot(reports: list[dict[str, Any]], ps: list[float], path: str):
     for rep in reports:
         n, leaders, dist, t = rep["n"], rep["_leaders"], rep["weight_distribution"], rep["t"]
         label = f"[{n},{rep['k']}" + (f",{rep['d']}]" if rep["d"] is not None else "]")
-        name = (rep["name"] or "").split("[")[0].strip()
+        name = one_line((rep["name"] or "").split("[")[0].strip(), extra="$")  # data
         if name:
             label += f" {name}"
         curves.append(ChannelCurve(

@@ -156,18 +156,23 @@ def write_output(write: Callable[[], Any], path: str | os.PathLike[str],
     ``fallback`` prints what was computed (so a failed write loses nothing) before
     the error is raised as a :class:`Gf2CodesError`.
     """
+    kept = " (the result is printed above)" if fallback is not None else ""
     try:
         return write()
     except OSError as exc:
         if fallback is not None:
             fallback()
         reason = exc.strerror or type(exc).__name__
-        kept = " (the result is printed above)" if fallback is not None else ""
         raise _WriteError(f"cannot write {clean(path)!r}: {reason}{kept}.") from None
+    except Gf2CodesError as exc:  # a writer that already turned its OSError into one line
+        if fallback is not None:
+            fallback()
+        raise _WriteError(f"{str(exc).rstrip('.')}{kept}.") from None
 
 
 class _WriteError(Gf2CodesError, OSError):
     """Writing an output file failed."""
+
 
 class _Console(Console):
     """A rich console that leaves a closed pipe to :func:`gf2codes.cli.main`.

@@ -16,6 +16,7 @@ from ..code import Code
 from ..derive import UNARY_OPERATIONS, apply_operations, parse_operations
 from ..exceptions import Gf2CodesError, ParseError
 from ._build import add_output_flags, describe_distance, emit
+from ._common import check_output_path
 
 __all__ = ["register", "run"]
 
@@ -83,8 +84,9 @@ def _interval_text(lo: int | None, hi: int | None) -> str:
 def run(args: argparse.Namespace) -> int:
     from .. import formats
 
-    steps = parse_operations(args.operations)
+    check_output_path(args.output)
     rec = formats.read_code(args.file, parity_check=args.parity_check)
+    steps = parse_operations(args.operations, rec.code.n)
     lo, hi = _stated(rec, args.file)
     built = _proved_by_recipe(rec.code)
     code = rec.code.with_info(

@@ -26,12 +26,17 @@ def register(subparsers: Any) -> None:
         description="Read two codes (text matrix, .npy or JSON record) and decide whether a "
                     "permutation of coordinates maps the first onto the second. Exit status "
                     "0: equivalent (the permutation is printed, coordinate j of A -> p[j] of "
-                    "B); 1: not equivalent (with the reason); 3: undecided; 2: error.")
+                    "B); 1: not equivalent (with the reason); 4: undecided within the limits of "
+                    "the test; 2: bad input; 3: internal error.")
     p.add_argument("a", metavar="A", help="the first code")
     p.add_argument("b", metavar="B", help="the second code")
     p.add_argument("--parity-check", action="store_true",
                    help="read matrix files as parity-check matrices")
     add_json_flag(p)
+
+
+#: Exit status of an undecided test (3 is kept for internal errors, as everywhere).
+UNDECIDED = 4
 
 
 def run(args: argparse.Namespace) -> int:
@@ -41,7 +46,7 @@ def run(args: argparse.Namespace) -> int:
     a = read_code(args.a, parity_check=args.parity_check).code
     b = read_code(args.b, parity_check=args.parity_check).code
     result = are_equivalent(a, b)
-    status = {True: 0, False: 1, None: 3}[result.equivalent]
+    status = {True: 0, False: 1, None: UNDECIDED}[result.equivalent]
     if args.json:
         print_json({"equivalent": result.equivalent, "permutation": result.permutation,
                     "reason": result.reason, "a": {"n": a.n, "k": a.k},

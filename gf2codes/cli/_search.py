@@ -23,18 +23,22 @@ from rich.table import Table
 
 from .. import formats
 from .. import search as S
-from ..exceptions import Gf2CodesError, ParameterError
+from ..exceptions import Gf2CodesError, ParameterError, check_int
 from ..search._driver import validate
 from ._common import (
+    MAX_SECONDS,
+    MAX_SEED,
     ProgressBar,
     add_executor_options,
     add_json_flag,
+    check_output_path,
     console,
     err_console,
     executor_from_args,
     parse_float,
     parse_int,
     print_json,
+    write_output,
 )
 from ._text import matrix_block
 
@@ -95,7 +99,11 @@ def _open_catalog(args):
 def run(args) -> int:
     given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
     time_limit = parse_float("time_limit", args.time_limit)
-    seed = parse_int("seed", args.seed)
+    if not 0 < time_limit <= MAX_SECONDS:
+        raise ParameterError(f"Argument 'time_limit' must be above 0 and at most "
+                             f"{MAX_SECONDS:.0e} seconds, not {time_limit:g}.")
+    seed = check_int("seed", parse_int("seed", args.seed), minimum=0, maximum=MAX_SEED)
+    check_output_path(args.output)
     max_steps = None if args.max_steps is None else parse_int("max_steps",
                                                               args.max_steps)
     strategies = S.resolve_strategies(args.strategy)
@@ -153,14 +161,18 @@ def run(args) -> int:
         if cat is not None:
             cat.close()
 
-    if args.output:
-        formats.write_code(result.code, args.output, d=result.d,
-                           d_lower=result.d_lower, strategy=result.strategy,
-                           seed=result.seed)
-    if args.json:
-        print_json(result.to_dict())
-    else:
-        _print(result)
+    def show() -> None:
+        if args.json:
+            print_json(result.to_dict())
+        else:
+            _print(result)
+
+    if args.output:  # a failed write still shows the result, then says what failed
+        write_output(lambda: formats.write_code(result.code, args.output, d=result.d,
+                                                d_lower=result.d_lower,
+                                                strategy=result.strategy, seed=result.seed),
+                     args.output, show)
+    show()
     if interrupted:
         err_console.print("interrupted: the best code found so far is shown")
         return 130
