@@ -272,7 +272,9 @@ class Code:
     @cached_property
     def is_self_orthogonal(self) -> bool:
         """``C ⊆ C^⊥``: every two codewords (a codeword with itself included) are orthogonal."""
-        G = self.G.astype(np.int64)
+        if 2 * self.k > self._n:  # C ⊆ C^⊥ needs k <= n - k
+            return False
+        G = self.G  # uint8: the product wraps modulo 256, which keeps its parity
         return not ((G @ G.T) & 1).any()
 
     @cached_property
@@ -299,7 +301,9 @@ class Code:
         """``C^⊥ ⊆ C`` (the condition of the CSS construction of quantum codes)."""
         if self.k == self._n:
             return True
-        H = self.H.astype(np.int64)
+        if 2 * self.k < self._n:  # C^⊥ ⊆ C needs n - k <= k: no parity-check matrix needed
+            return False
+        H = self.H  # uint8: the product wraps modulo 256, which keeps its parity
         return not ((H @ H.T) & 1).any()
 
     @property

@@ -361,10 +361,16 @@ class _Task:
         self.subsets = subsets
 
 
+_MAX_SPLIT_ROWS = 512  # see _level_tasks
+
+
 def _level_tasks(m: _InfoSetMatrix, w: int, split: bool) -> list[_Task]:
     """Cut the weight-``w`` combinations of ``m`` into tasks (by the first head row when
     ``split``, so that several threads can share a level)."""
     W = m.rows.shape[1]
+    # Splitting copies the head once per task (quadratic in the rows): for very tall
+    # matrices (Hamming [4095,4083]) that copying alone took a minute, so do not split.
+    split = split and m.a <= _MAX_SPLIT_ROWS
     zero = np.zeros(W, dtype=np.uint64)
     index = np.arange(m.a, dtype=np.int64)
     tasks: list[_Task] = []
@@ -873,7 +879,9 @@ def minimum_distance(
     passes = 5 if target is not None else min(200, 5 + 40 * code.n // max(code.k, 1))
     if code.k < 62 and (1 << code.k) <= passes * (code.k * (code.k + 1) // 2 + code.n):
         passes = 0  # enumerating every codeword costs less than the passes themselves
-    quick = _isd(code, _rng(seed), iterations=passes, deadline=None)
+    # With a time limit, the pre-pass gets at most a quarter of it.
+    quick = _isd(code, _rng(seed), iterations=passes,
+                 deadline=None if time_limit is None else time.perf_counter() + 0.25 * time_limit)
     best.offer(quick[0], quick[1])
     codewords_pre = quick[2]
 

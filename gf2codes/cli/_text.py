@@ -22,7 +22,16 @@ def weight_text(counts: Sequence[int], letter: str = "A") -> str:
     >>> weight_text([1, 7], letter="L")
     'L0=1 L1=7'
     """
-    return " ".join(f"{letter}{i}={a}" for i, a in enumerate(counts) if a)
+    items = [f"{letter}{i}={a}" for i, a in enumerate(counts) if a]
+    if len(items) > _MAX_SHOWN:  # a [4095,4083] code has 4000: rich took 20 s to wrap them
+        half = _MAX_SHOWN // 2
+        items = items[:half] + [f"... ({len(items) - 2 * half} more; --json lists all) ..."] \
+            + items[-half:]
+    return " ".join(items)
+
+
+#: :func:`weight_text` shows at most this many counts (the first and last halves).
+_MAX_SHOWN = 48
 
 
 def triple_text(n: int, k: int, d_lower: int, d_upper: int | None) -> str:

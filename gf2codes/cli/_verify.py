@@ -14,10 +14,13 @@ from rich.table import Table
 from ..code import Code
 from ..distance import DistanceResult, human_seconds, minimum_distance, quick_distance
 from ..exceptions import Gf2CodesError, ParameterError, TooExpensiveError, check_int
+from ..formats import one_line as inert_text
 from ..formats import read_code, rows_to_strings
 from ..weights import (
     DEFAULT_MAX_ENUMERATION,
     dual_distance,
+    macwilliams_transform,
+    minimum_weight_from_distribution,
     weight_distribution,
     weight_enumeration_cost,
 )
@@ -25,10 +28,15 @@ from ._common import (
     ProgressBar,
     add_executor_options,
     add_json_flag,
+    check_output_path,
+    clean,
     console,
+    count_arg,
     err_console,
     executor_from_args,
     print_json,
+    seconds_arg,
+    seed_arg,
 )
 from ._text import weight_text
 
@@ -53,16 +61,16 @@ def register(sub: argparse._SubParsersAction) -> None:
                         "directories: every .txt, .npy and .json file in them")
     p.add_argument("--parity-check", action="store_true",
                    help="the file holds a parity-check matrix H, not a generator matrix")
-    p.add_argument("--target-d", type=int, metavar="D",
+    p.add_argument("--target-d", type=count_arg(1, 1 << 40), metavar="D",
                    help="only settle whether d >= D (stops as soon as it is known)")
-    p.add_argument("--time-limit", type=float, metavar="S",
-                   help="seconds for the distance computation; on expiry the proved "
-                        "interval is reported")
+    p.add_argument("--time-limit", type=seconds_arg, metavar="S",
+                   help="seconds for the whole report; on expiry the proved interval of d "
+                        "is reported and the parts not finished are marked not computed")
     p.add_argument("--method", choices=("exact", "fast"), default="exact",
                    help="exact: prove d (default); fast: a quick interval, the upper end by "
                         "information-set decoding")
-    p.add_argument("--seed", type=int, default=0, help="seed for the randomised parts")
-    p.add_argument("--workers", type=int, metavar="N",
+    p.add_argument("--seed", type=seed_arg, default=0, help="seed for the randomised parts")
+    p.add_argument("--workers", type=count_arg(1, 4096), metavar="N",
                    help="threads for the exact enumeration (default: one per core)")
     add_executor_options(p, "the large enumeration levels")
     p.add_argument("--plot", metavar="FILE.png",
@@ -81,6 +89,7 @@ def run(args: argparse.Namespace) -> int:
         from ..plots import require_matplotlib
 
         require_matplotlib()  # before the work, not after it
+        check_output_path(args.plot, "--plot")
     inputs = _expand_inputs(args.files)
     if args.plot and len(inputs) != 1:
         raise ParameterError(f"Argument '--plot' draws one code, but {len(inputs)} input "
@@ -96,7 +105,8 @@ def run(args: argparse.Namespace) -> int:
             except Gf2CodesError as exc:
                 if len(inputs) == 1:
                     raise
-                err_console.print(f"gf2codes verify: error: {escape(str(exc))}", soft_wrap=True)
+                err_console.print(f"gf2codes verify: error: {escape(clean(exc))}",
+                                  soft_wrap=True)
                 failed.append(path)
                 continue
             if status:  # interrupted: what was proved is printed; stop here
@@ -106,7 +116,7 @@ def run(args: argparse.Namespace) -> int:
             executor.close()
     if failed:
         err_console.print(f"gf2codes verify: {len(failed)} of {len(inputs)} files failed: "
-                          + escape(", ".join(failed)), soft_wrap=True)
+                          + escape(clean(", ".join(failed))), soft_wrap=True)
         return 2
     return 0
 
@@ -159,7 +169,9 @@ def _plot(info: dict[str, Any], code: Code, source: str, path: str) -> None:
                                 "code was not computed, so there is nothing to draw.")
     out = save_weight_distribution_plot(
         info["weight_distribution"], path,
-        title=f"How many codewords has each weight? {source}: n={code.n} k={code.k}")
+        # a title is data: one line, and no '$' that would start matplotlib's math mode
+        title=f"How many codewords has each weight? "
+              f"{inert_text(_shown_source(source), extra='$')}: n={code.n} k={code.k}")
     err_console.print(f"wrote {escape(str(out))}")
 
 
@@ -190,29 +202,51 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
     ``d_upper``); a statement that the proof contradicts is reported, not trusted.
     """
     start = time.perf_counter()
+    deadline = None if time_limit is None else time.monotonic() + time_limit
     res = _distance(code, method, time_limit, target_d, seed, workers, executor)
     notes: list[str] = []
+    not_computed: list[str] = []
+
+    def left() -> float | None:
+        return None if deadline is None else max(0.0, deadline - time.monotonic())
+
     # Weight distribution: only when it is affordable within what is left.
     cost = weight_enumeration_cost(code)
-    left = None if time_limit is None else max(0.0, time_limit - (time.perf_counter() - start))
-    dist = None
+    dist = dual_dist = None
     if res.stopped == "interrupted":
         notes.append("interrupted (Ctrl-C): the proved interval so far is reported; the "
                      "weight distribution was skipped")
-    elif cost > DEFAULT_MAX_ENUMERATION or (left is not None and cost / _WEIGHT_RATE > left):
+        not_computed += ["weight distribution", "dual distance"]
+    elif code.k < code.n and (cost > DEFAULT_MAX_ENUMERATION or
+                              (left() is not None and cost / _WEIGHT_RATE > (left() or 0))):
         notes.append(
             f"weight distribution not computed: it needs 2^{min(code.k, code.n - code.k)} "
-            "codewords" + ("" if left is None else " and the time limit is too short")
+            "codewords" + ("" if left() is None else " and the time limit is too short")
         )
+        not_computed.append("weight distribution")
     else:
-        with ProgressBar("counting weights") as bar:
-            dist = weight_distribution(code, progress=bar)
+        try:
+            with ProgressBar("counting weights") as bar:
+                dist, dual_dist = _distributions(code, _bounded(bar, deadline), deadline)
+        except TimeoutError:
+            notes.append("weight distribution not computed: the time limit ran out")
+            not_computed.append("weight distribution")
     if dist is not None and not res.exact and target_d is None:
         # The distribution is exact, so it proves d as well.
         d_from_dist = next(i for i, a in enumerate(dist) if i and a)
         notes.append("d proved from the exact weight distribution")
         res = _exact_from_distribution(code, res, d_from_dist, seed)
-    dual_d = dual_distance(code, dist) if dist is not None else None
+    dual_d = None
+    if dual_dist is not None:
+        dual_d = minimum_weight_from_distribution(dual_dist)
+    elif dist is not None:
+        try:
+            dual_d = dual_distance(code, dist, deadline=deadline)
+        except TimeoutError:
+            notes.append("dual distance not computed: the time limit ran out")
+            not_computed.append("dual distance")
+    elif code.k < code.n and "dual distance" not in not_computed:
+        not_computed.append("dual distance")
     d = res.d
     lower = res.lower
     out: dict[str, Any] = {
@@ -238,6 +272,7 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
         "properties": code.properties(),
         "dropped_rows": code.dropped_rows,
         "notes": notes,
+        "not_computed": not_computed,
     }
     out["stated_wrong"] = _contradicted(stated or {}, res)
     if out["stated_wrong"]:
@@ -246,8 +281,50 @@ def analyse(code: Code, *, time_limit: float | None = None, method: str = "exact
     if target_d is not None:
         out["target_d"] = target_d
         out["meets_target"] = res.at_least(target_d)
-    out.update(_verdict(code, res))
+    verdict_limit = _VERDICT_MAX_N if deadline is None else _VERDICT_MAX_N_TIMED
+    if code.n <= verdict_limit:
+        verdict = _verdict(code, res)
+    else:
+        notes.append(f"bounds not computed: for n > {verdict_limit} they take too long "
+                     + ("within a time limit" if deadline is not None else "in a report")
+                     + f"; run gf2codes bounds --n {code.n} --k {code.k} for them")
+        not_computed.append("bounds")
+        verdict = {"upper_bound": None, "optimal": None, "least_length": None}
+    out.update(verdict)
+    out["seconds"] = round(time.perf_counter() - start, 4)
     return out
+
+
+def _distributions(code: Code, progress, deadline: float | None
+                   ) -> tuple[list[int], list[int] | None]:
+    """The weight distribution, and the dual's when it was the one enumerated.
+
+    Counting the smaller side: the code itself (the dual distance then comes from
+    the first nonzero MacWilliams entry), or the dual, whose distribution gives the
+    dual distance directly and the code's by the MacWilliams transform.
+    """
+    if code.k == code.n or code.k <= code.n - code.k:
+        return weight_distribution(code, progress=progress, deadline=deadline), None
+    dual = weight_distribution(code.dual(), progress=progress, deadline=deadline)
+    return macwilliams_transform(dual, code.n, deadline=deadline), dual
+
+
+#: The verdict's bounds (best upper bound at (n, k), least length for (k, d)) are
+#: computed up to this length (about 20 s at n = 1023 on one idle core in 0.1), and
+#: up to the second length under a time limit (about a second at n = 256).
+_VERDICT_MAX_N = 1024
+_VERDICT_MAX_N_TIMED = 256
+
+
+def _bounded(progress: ProgressBar, deadline: float | None):
+    """A progress callback that also stops the work (TimeoutError) after ``deadline``."""
+
+    def call(done: int, total: int, info: dict) -> None:
+        progress(done, total, info)
+        if deadline is not None and time.monotonic() > deadline:
+            raise TimeoutError("the time limit ran out")
+
+    return call
 
 
 def _contradicted(stated: dict[str, int], res: DistanceResult) -> list[str]:
@@ -307,6 +384,10 @@ def report(code: Code, *, as_json: bool = False, time_limit: float | None = None
     return _print(info, code, source, as_json=as_json)
 
 
+def _shown_source(source: str) -> str:
+    return "standard input" if source == "-" else source
+
+
 def _print(info: dict[str, Any], code: Code, source: str | None, *, as_json: bool,
            one_line: bool = False) -> int:
     """Print a report (table or JSON); the exit status is 130 after a Ctrl-C."""
@@ -348,7 +429,6 @@ def _unit(info: dict[str, Any]) -> str:
     return "column subsets" if info["d_method"].startswith("dual-columns") else "codewords"
 
 
-
 def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
     n, k = info["n"], info["k"]
     if info["dropped_rows"]:
@@ -356,16 +436,21 @@ def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
             f"note: {info['dropped_rows']} row(s) of the matrix were linearly dependent on the "
             f"others and were dropped; the code has dimension k = {k}."
         )
-    console.print(escape(_first_line(info, code, source)), style="bold", soft_wrap=True)
+    shown = _shown_source(source) if source else source
+    console.print(escape(clean(_first_line(info, code, shown))), style="bold", soft_wrap=True)
     t = Table(show_header=False, box=None, pad_edge=False)
     t.add_column(style="bold")
     t.add_column(overflow="fold")
     t.add_row("length n", str(n))
     t.add_row("dimension k", f"{k}   (rate {k / n:.4f}, {n - k} parity bits)")
     if info["d_exact"]:
+        count = f"{info['codewords_examined']:,} {_unit(info)}"
+        if info["d_method"] == "gray":  # the total includes the randomised pre-pass
+            count = (f"all 2^{k} = {1 << k:,} codewords, {info['codewords_examined']:,} "
+                     "examined in all with the randomised pre-pass")
         t.add_row("minimum distance d",
                   f"{info['d']}   proved by {_method_words(info['d_method'])} "
-                  f"({info['codewords_examined']:,} {_unit(info)}, {info['seconds']:.2f} s)")
+                  f"({count}, {info['seconds']:.2f} s)")
     else:
         t.add_row("minimum distance d",
                   f"[bold red]NOT PROVED[/]: {info['d_lower']} ≤ d ≤ {info['d_upper']} "
@@ -385,13 +470,17 @@ def _print_report(info: dict[str, Any], code: Code, source: str | None) -> None:
     dist = info["weight_distribution"]
     t.add_row("weight distribution", weight_text(dist) if dist else "not computed")
     dd = info["dual_distance"]
-    t.add_row("dual distance", "—" if dd is None else str(dd))
+    t.add_row("dual distance", str(dd) if dd is not None else
+              "not computed" if "dual distance" in info["not_computed"] else
+              "— (the dual is the zero code)")
     t.add_row("lightest codeword found", f"{info['witness']}   (weight {info['witness_weight']})")
     props = [name.replace("_", "-") for name, v in info["properties"].items() if v]
     t.add_row("properties", ", ".join(props) if props else "none of even, self-orthogonal, "
               "dual-containing")
     ub = info["upper_bound"]
-    if info["optimal"] is True:
+    if ub is None:
+        verdict = "not computed (see the note below)"
+    elif info["optimal"] is True:
         verdict = escape(f"optimal: no [{n}, {k}] code has d > {ub['d']} ({ub['by']})")
     elif info["optimal"] is False:
         verdict = f"not known optimal: bounds allow d ≤ {ub['d']} ({ub['by']})"
