@@ -42,7 +42,7 @@ import numpy as np
 from ._version import __version__
 from .code import Code
 from .exceptions import ParameterError
-from .formats import code_to_record, rows_to_strings
+from .formats import code_to_record, one_line, rows_to_strings
 
 __all__ = [
     "FORMATS",
@@ -214,7 +214,7 @@ def c_header(code: Code, *, prefix: str = "gf2code") -> str:
                              f"header, not {n}.")
     dw, cw, sw = -(-k // 64), -(-n // 64), -(-r // 64)
     guard = f"{up}_H"
-    label = f" ({code.name})" if code.name else ""
+    label = f" ({one_line(code.name)})" if code.name else ""  # data, never code
     identity = (np.array_equal(enc.information_positions, np.arange(k))
                 and np.array_equal(enc.parity_positions, np.arange(k, n)))
     layout = ("The codeword is [data | parity]:\n * data bit i at position i, parity bit j at "
@@ -346,7 +346,7 @@ def text_description(code: Code) -> str:
     """
     enc = systematic_encoder(code)
     info = enc.information_positions
-    label = f": {code.name}" if code.name else ""
+    label = f": {one_line(code.name)}" if code.name else ""  # keeps the header one line
     lines = [
         f"# [{enc.n}, {enc.k}] binary linear code{label} - systematic encoder "
         f"(gf2codes {__version__} export)",
@@ -409,7 +409,9 @@ def tanner_graph(code: Code, parity_check: np.ndarray | None = None):
     if H.ndim != 2 or H.shape[1] != code.n:
         raise ParameterError(
             f"Argument 'parity_check' must have {code.n} columns, not {H.shape[-1]}.")
-    g = nx.Graph(n=code.n, k=code.k, name=code.name or f"[{code.n},{code.k}] code")
+    # XML escapes < and &, but control characters would make the file unreadable.
+    g = nx.Graph(n=code.n, k=code.k,
+                 name=one_line(code.name) if code.name else f"[{code.n},{code.k}] code")
     for i in range(code.n):
         g.add_node(f"v{i}", kind="variable", index=i)
     for j in range(H.shape[0]):
@@ -433,6 +435,14 @@ def export_code(code: Code, fmt: str, *, prefix: str = "gf2code") -> bytes:
     if fmt not in FORMATS:
         raise ParameterError(f"Argument 'format' must be one of {', '.join(FORMATS)}, "
                              f"not {fmt!r}.")
+    if fmt == "c":  # refuse before the (long, for huge n) systematic form
+        _identifier(prefix)
+        if code.k == code.n:
+            raise ParameterError("Argument 'code' must have at least one parity bit for a C "
+                                 f"encoder, not k = n = {code.n}.")
+        if code.n > C_MAX_LENGTH:
+            raise ParameterError(f"Argument 'code' must have n at most {C_MAX_LENGTH} for the "
+                                 f"C header, not {code.n}.")
     if fmt == "c":
         return c_header(code, prefix=prefix).encode()
     if fmt == "text":
