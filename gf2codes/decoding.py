@@ -59,6 +59,7 @@ import time
 from collections.abc import Callable, Sequence
 from dataclasses import asdict, dataclass, field
 from fractions import Fraction
+from functools import lru_cache
 from typing import Any
 
 import numpy as np
@@ -247,6 +248,16 @@ def covering_radius(code: Code, *, max_redundancy: int = DEFAULT_MAX_REDUNDANCY)
 # ----------------------------------------------------------------- exact probabilities
 
 
+@lru_cache(maxsize=16)
+def _binomials(n: int) -> tuple[int, ...]:
+    """``C(n, 0), ..., C(n, n)`` by the multiplicative recurrence (one pass, cached:
+    ``math.comb`` per entry and per p took most of a minute at n = 4095)."""
+    row = [1]
+    for i in range(n):
+        row.append(row[-1] * (n - i) // (i + 1))
+    return tuple(row)
+
+
 def _binomial_sum(coefficients: Sequence[int], n: int, p: Probability) -> Probability:
     """``sum_i c_i p^i (1-p)^(n-i)`` over ``i = 0 .. len(c) - 1`` (c_i >= 0 integers)."""
     if isinstance(p, Fraction):
@@ -300,7 +311,7 @@ def block_error_probability(leaders: CosetLeaders, p: Probability) -> Probabilit
     p = check_probability("p", p)
     n = leaders.n
     alpha = leaders.padded()
-    return _binomial_sum([math.comb(n, i) - alpha[i] for i in range(n + 1)], n, p)
+    return _binomial_sum([c - a for c, a in zip(_binomials(n), alpha, strict=False)], n, p)
 
 
 def undetected_error_probability(distribution: Sequence[int], p: Probability) -> Probability:
@@ -334,7 +345,7 @@ def bounded_distance_failure_probability(n: int, t: int, p: Probability) -> Prob
     n = check_int("n", n, minimum=1)
     t = check_int("t", t, minimum=0)
     p = check_probability("p", p)
-    return _binomial_sum([math.comb(n, i) if i > t else 0 for i in range(n + 1)], n, p)
+    return _binomial_sum([c if i > t else 0 for i, c in enumerate(_binomials(n))], n, p)
 
 
 @dataclass(frozen=True)

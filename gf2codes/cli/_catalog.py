@@ -22,10 +22,9 @@ import json
 import sys
 from typing import Any
 
-from rich.console import Console
-
 from ..exceptions import CatalogError, ParameterError, TooExpensiveError, check_int
 from ._common import (
+    _Console,
     check_output_path,
     clean,
     count_arg,
@@ -38,7 +37,7 @@ from ._common import (
 from ._text import length_grid, matrix_block, triple_text, weight_text
 
 # Plain text: codes print as [n, k, d], which rich would take for markup.
-console = Console(highlight=False, markup=False)
+console = _Console(highlight=False, markup=False)  # the shared broken-pipe rule
 
 __all__ = ["register", "run"]
 

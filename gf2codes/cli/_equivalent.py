@@ -10,12 +10,10 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from rich.console import Console
-
-from ._common import add_json_flag, print_json
+from ._common import _Console, add_json_flag, print_json
 
 # Plain text: "p[j]" and "[n, k]" are not markup.
-console = Console(highlight=False, markup=False)
+console = _Console(highlight=False, markup=False)  # the shared broken-pipe rule
 
 __all__ = ["register", "run"]
 
