@@ -99,9 +99,9 @@ def _open_catalog(args):
 def run(args) -> int:
     given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
     time_limit = parse_float("time_limit", args.time_limit)
-    if not 0 < time_limit <= MAX_SECONDS:
-        raise ParameterError(f"Argument 'time_limit' must be above 0 and at most "
-                             f"{MAX_SECONDS:.0e} seconds, not {time_limit:g}.")
+    if time_limit > MAX_SECONDS:  # (not positive: refused by validate() below)
+        raise ParameterError(f"Argument 'time_limit' must be at most {MAX_SECONDS:.0e} "
+                             f"seconds, not {time_limit:g}.")
     seed = check_int("seed", parse_int("seed", args.seed), minimum=0, maximum=MAX_SEED)
     check_output_path(args.output)
     max_steps = None if args.max_steps is None else parse_int("max_steps",
