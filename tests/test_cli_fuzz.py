@@ -37,6 +37,15 @@ _SETTINGS = dict(deadline=None, derandomize=True, database=None,
 
 #: Examples run, by command (printed by the slow test for the report).
 COUNTS: dict[str, int] = {}
+#: With ``GF2CODES_FUZZ_LOG=FILE``, the running counts are rewritten there every 50
+#: examples, so that a long run stopped from outside still tells how far it got.
+_LOG = os.environ.get("GF2CODES_FUZZ_LOG")
+
+
+def _count(command: str) -> None:
+    _count(command)
+    if _LOG and sum(COUNTS.values()) % 50 == 0:
+        Path(_LOG).write_text(json.dumps(COUNTS) + "\n")
 
 # ---------------------------------------------------------------------- strategies
 
@@ -208,7 +217,7 @@ def _write(tmp: str, name: str, data: bytes) -> Path:
 
 
 def _fuzz_verify(data: bytes, name: str, options: list[str]) -> None:
-    COUNTS["verify"] = COUNTS.get("verify", 0) + 1
+    _count("verify")
     with tempfile.TemporaryDirectory() as tmp:
         path = _write(tmp, name, data)
         argv = ["verify", str(path), *options, "--json"]
@@ -225,7 +234,7 @@ _derive_ops = st.lists(st.sampled_from(["puncture", "shorten", "extend", "augmen
 
 
 def _fuzz_others(data: bytes, name: str, command: str, extra: list[str]) -> None:
-    COUNTS[command] = COUNTS.get(command, 0) + 1
+    _count(command)
     with tempfile.TemporaryDirectory() as tmp:
         path = _write(tmp, name, data)
         if command == "export":
@@ -286,7 +295,7 @@ _search_options = st.lists(st.sampled_from([("--n",), ("--k",), ("--d",), ("--se
 @settings(max_examples=DEFAULT_EXAMPLES, **_SETTINGS)
 @given(options=_options(_search_options))
 def test_fuzz_search_options(options):
-    COUNTS["search"] = COUNTS.get("search", 0) + 1
+    _count("search")
     if "--time-limit" not in options:
         options += ["--time-limit", "0.5"]
     status, _, err = _run(["search", *options, "--no-catalog", "--json"])
@@ -295,16 +304,14 @@ def test_fuzz_search_options(options):
 
 @pytest.mark.slow
 @settings(max_examples=SLOW_EXAMPLES, **{**_SETTINGS, "derandomize": False})
-@given(data=_contents, name=_file_names, options=_options(_verify_options))
-def test_fuzz_verify_long(data, name, options):
-    _fuzz_verify(data, name, options)
-
-
-@pytest.mark.slow
-@settings(max_examples=SLOW_EXAMPLES, **{**_SETTINGS, "derandomize": False})
-@given(data=_contents, name=_file_names, command=_command_and_extra())
-def test_fuzz_other_commands_long(data, name, command):
-    _fuzz_others(data, name, command[0], list(command[1]))
+@given(data=_contents, name=_file_names, options=_options(_verify_options),
+       command=_command_and_extra(), which=st.integers(0, 1))
+def test_fuzz_long(data, name, options, command, which):
+    """The long run: verify and the other commands, interleaved."""
+    if which == 0:
+        _fuzz_verify(data, name, options)
+    else:
+        _fuzz_others(data, name, command[0], list(command[1]))
 
 
 @pytest.mark.slow
