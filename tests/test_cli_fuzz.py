@@ -43,7 +43,7 @@ _LOG = os.environ.get("GF2CODES_FUZZ_LOG")
 
 
 def _count(command: str) -> None:
-    _count(command)
+    COUNTS[command] = COUNTS.get(command, 0) + 1
     if _LOG and sum(COUNTS.values()) % 50 == 0:
         Path(_LOG).write_text(json.dumps(COUNTS) + "\n")
 

@@ -310,9 +310,10 @@ def _distributions(code: Code, progress, deadline: float | None
 
 
 #: The verdict's bounds (best upper bound at (n, k), least length for (k, d)) are
-#: computed up to this length (about 20 s at n = 1023 on one idle core in 0.1), and
-#: up to the second length under a time limit (about a second at n = 256).
-_VERDICT_MAX_N = 1024
+#: computed up to this length (bounds.py 0.1: about 10 s at n = 512 and 30 s at
+#: n = 1000 on a loaded core), and up to the second length under a time limit
+#: (about a second at n = 256). Raise them when the bounds get faster.
+_VERDICT_MAX_N = 512
 _VERDICT_MAX_N_TIMED = 256
 
 
