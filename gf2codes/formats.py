@@ -323,7 +323,7 @@ def record_to_code(obj: Any, source: str = "<record>", *, limit: int | None = No
         raise ParseError(f"{source}: 'name' must be a string or null, not "
                          f"{type(name).__name__}.")
     _check_size(obj, source, max_entries() if limit is None else limit)
-    meta = {"name": name, "recipe": recipe}
+    meta: dict[str, Any] = {"name": name, "recipe": recipe}
     try:
         if "generator" in obj:
             code = Code(_strings_to_rows(obj["generator"], source, "generator"), **meta)
