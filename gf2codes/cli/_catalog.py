@@ -31,6 +31,7 @@ from ._common import (
     parse_range,
     print_json,
     seconds_arg,
+    seconds_or_zero_arg,
     seed_arg,
     write_output,
 )
@@ -87,7 +88,7 @@ def register(subparsers: Any) -> None:
     _common_options(p, suppress=True)
 
     p = sub.add_parser("show", help="an entry: its code, recipes and proof")
-    p.add_argument("id", type=count_arg(1, (1 << 63) - 1), metavar="ID")
+    p.add_argument("id", type=int, metavar="ID")
     _common_options(p, suppress=True)
 
     p = sub.add_parser(
@@ -102,7 +103,7 @@ def register(subparsers: Any) -> None:
     p.add_argument("--d", type=count_arg(1, 1 << 20))
     p.add_argument("--rows", action="store_true",
                    help="also print the generator rows, as a matrix file")
-    p.add_argument("--prove-time", type=seconds_arg, default=2.0, metavar="S",
+    p.add_argument("--prove-time", type=seconds_or_zero_arg, default=2.0, metavar="S",
                    help="seconds for proving the exact d of a derived answer (0: do not)")
     _common_options(p, suppress=True)
 
@@ -142,14 +143,14 @@ def register(subparsers: Any) -> None:
         description="Prove the minimum distance of entries whose d is only claimed (trusted "
                     "imports, the shipped seed, entries stored before provenance was "
                     "recorded). A proof replaces the claim; a claim found false is corrected.")
-    p.add_argument("ids", metavar="ID", nargs="*", type=count_arg(1, (1 << 63) - 1),
+    p.add_argument("ids", metavar="ID", nargs="*", type=int,
                    help="entries to prove (default: every entry not proved here)")
     p.add_argument("--time-limit", type=seconds_arg, default=10.0, metavar="S",
                    help="seconds per entry (default 10)")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("remove", help="delete an entry and its recipes")
-    p.add_argument("id", type=count_arg(1, (1 << 63) - 1), metavar="ID")
+    p.add_argument("id", type=int, metavar="ID")
     _common_options(p, suppress=True)
 
     p = sub.add_parser("info", help="where the catalog is and what it holds")

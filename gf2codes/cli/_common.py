@@ -18,7 +18,8 @@ from ..exceptions import Gf2CodesError, ParameterError
 
 __all__ = ["console", "err_console", "print_json", "parse_range", "parse_int", "parse_float",
            "add_json_flag", "add_executor_options", "executor_from_args", "ProgressBar",
-           "clean", "seconds_arg", "seed_arg", "count_arg", "probability_arg", "address_arg",
+           "clean", "seconds_arg", "seconds_or_zero_arg", "seed_arg", "count_arg",
+           "probability_arg", "address_arg",
            "check_output_path", "write_output", "MAX_SECONDS", "MAX_SEED"]
 
 #: The largest time limit accepted (about 31 years): larger values are typing mistakes.
@@ -65,6 +66,13 @@ def seconds_arg(text: str) -> float:
             f"must be a number of seconds above 0 and at most {MAX_SECONDS:.0e}, "
             f"not {clean(text)!r}")
     return value
+
+
+def seconds_or_zero_arg(text: str) -> float:
+    """argparse type of a time budget that may be 0 (do not spend any time)."""
+    if text.strip() in ("0", "0.0", "0e0"):
+        return 0.0
+    return seconds_arg(text)
 
 
 def seed_arg(text: str) -> int:
@@ -145,8 +153,8 @@ def check_output_path(path: str | os.PathLike[str] | None, option: str = "--outp
                              f"{clean(p)!r}.")
     parent = p.parent
     if not parent.is_dir():
-        raise ParameterError(f"Argument {option!r} names a file in {clean(parent)!r}, which "
-                             "is not an existing folder.")
+        raise ParameterError(f"Argument {option!r}: cannot write {clean(p)!r}: "
+                             f"{clean(parent)!r} is not an existing folder.")
 
 
 def write_output(write: Callable[[], Any], path: str | os.PathLike[str],
@@ -266,14 +274,7 @@ def parse_range(name: str, text: str) -> range:
     if lo_i > hi_i:
         raise ParameterError(f"Argument {name!r} must be an increasing range, not "
                              f"{clean(text)!r}.")
-    if lo_i < 0 or hi_i > MAX_RANGE_VALUE:
-        raise ParameterError(f"Argument {name!r} must lie from 0 to {MAX_RANGE_VALUE:,}, not "
-                             f"{clean(text)!r}.")
     return range(lo_i, hi_i + 1)
-
-
-#: The largest value a range option (lengths, dimensions, distances) accepts.
-MAX_RANGE_VALUE = 1 << 20
 
 
 class ProgressBar:
