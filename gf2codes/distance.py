@@ -750,6 +750,12 @@ _ROUTE_TITLES = {
 }
 
 
+def _gray_seconds(k: int) -> float:
+    """Seconds to enumerate 2^k codewords; infinite past the float range (k >= 1024,
+    where ``2.0 ** k`` overflows: Hamming [4095,4083])."""
+    return math.inf if k >= 1000 else (2.0 ** k) / _RATE_GRAY
+
+
 def route_estimates(code: Code, upper_guess: int, target: int | None = None
                     ) -> dict[str, float]:
     """Estimated seconds (one core) of each exact route to prove d (or settle
@@ -759,7 +765,7 @@ def route_estimates(code: Code, upper_guess: int, target: int | None = None
     """
     goal = upper_guess if target is None else min(upper_guess, target)
     out: dict[str, float] = {}
-    out["gray"] = (2.0 ** code.k) / _RATE_GRAY
+    out["gray"] = _gray_seconds(code.k)
     if code.k > 22:
         out["brouwer-zimmermann"] = estimate_work(code, upper_guess, target=target) / _RATE_BZ
     if code.n - code.k <= 64:
@@ -891,7 +897,7 @@ def minimum_distance(
     else:
         estimates, reason = {}, "asked for"
         if engine == "gray":
-            estimates["gray"] = (2.0 ** code.k) / _RATE_GRAY
+            estimates["gray"] = _gray_seconds(code.k)
         elif engine == "brouwer-zimmermann":
             estimates[engine] = estimate_work(code, best.weight, target=target) / _RATE_BZ
         else:

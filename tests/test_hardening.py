@@ -276,6 +276,7 @@ def test_broken_pipe_is_exit_0_for_every_command(tmp_path, argv):
     proc.stdout.readline()
     proc.stdout.close()  # the reader goes away, as `| head -1` does
     err = proc.stderr.read().decode()
+    proc.stderr.close()
     assert proc.wait(timeout=300) == 0, err
     assert "Traceback" not in err and "Broken pipe" not in err, err
 
