@@ -508,3 +508,11 @@ def test_read_input_bytes_limits_a_stream(tmp_path, monkeypatch):
         f = tmp_path / "long.txt"
         f.write_bytes(b"1" * (8 * 10 + (1 << 20) + 1))
         read_input_bytes(f, limit=10)
+
+
+def test_route_estimates_do_not_overflow_for_huge_k():
+    """Hamming [2047,2036]: 2.0 ** 2036 overflowed and verify exited 3."""
+    from gf2codes.distance import route_estimates
+
+    est = route_estimates(hamming(11), 3)
+    assert est["gray"] == math.inf and est["dual-columns"] < math.inf
