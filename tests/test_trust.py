@@ -367,6 +367,12 @@ def nobody_dir():
     prefix = _as_nobody()
     if prefix is None:
         pytest.skip("needs root and setpriv to run a process as another user")
+    probe = subprocess.run([*prefix, sys.executable, "-c", "import gf2codes.cli"],
+                           env={"PATH": os.environ.get("PATH", ""), "PYTHONPATH": str(ROOT)},
+                           capture_output=True, text=True, timeout=120, cwd="/")
+    if probe.returncode != 0:  # e.g. a checkout or venv in a folder only root may enter
+        pytest.skip("the user nobody cannot import this checkout: "
+                    + (probe.stderr.strip().splitlines() or ["?"])[-1])
     d = Path(tempfile.mkdtemp(prefix="gf2codes-perm-"))
     d.chmod(0o755)
     yield prefix, d
