@@ -38,7 +38,7 @@ __all__ = [
 
 def _unary_u64_intrinsic(numba, name, llvm_name, extra_false_arg):
     """An intrinsic calling the LLVM bit operation ``llvm_name`` on one uint64."""
-    from llvmlite import ir
+    from llvmlite import ir  # type: ignore[import-untyped]
     from numba.core import cgutils
 
     u64 = numba.types.uint64

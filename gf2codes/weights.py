@@ -184,10 +184,10 @@ def _count(code: Code, progress: ProgressCallback | None) -> list[int]:
     try:
         while True:
             while len(pending) < 2 * threads:  # a short queue, so Ctrl-C stops soon
-                bounds = next(todo, None)
-                if bounds is None:
+                nxt = next(todo, None)
+                if nxt is None:
                     break
-                pending.append((bounds, pool.submit(block, bounds)))
+                pending.append((nxt, pool.submit(block, nxt)))
             if not pending:
                 break
             bounds, future = pending.popleft()
