@@ -12,7 +12,6 @@ References
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from functools import cached_property
 from typing import Any
 
 import numpy as np
@@ -22,6 +21,20 @@ from . import linalg
 from .exceptions import ParameterError
 
 __all__ = ["Code"]
+
+
+def _memoised(method: Any) -> property:
+    """A read-only property computed once per code, kept in the code's ``_memo``."""
+    key = method.__name__
+
+    def get(self: Code) -> Any:
+        memo = self._memo
+        if key not in memo:
+            memo[key] = method(self)
+        return memo[key]
+
+    get.__doc__ = method.__doc__
+    return property(get)
 
 
 def _readonly(a: np.ndarray) -> np.ndarray:
@@ -67,10 +80,11 @@ class Code:
     3
     """
 
-    __slots__ = (
-        "_n", "_basis", "_echelon", "_dropped", "name", "recipe", "d_lower", "d_upper",
-        "__dict__",
-    )
+    # No __dict__: a Code cannot be changed after it is made (``C.d_lower = 5`` raises
+    # AttributeError); :meth:`with_info` returns a new code with other metadata. Derived
+    # matrices and properties are computed once into the private ``_memo``.
+    __slots__ = ("_n", "_basis", "_echelon", "_dropped", "_name", "_recipe", "_d_lower",
+                 "_d_upper", "_memo")
 
     def __init__(
         self,
@@ -101,14 +115,37 @@ class Code:
         self._basis = _readonly(np.ascontiguousarray(basis_packed, dtype=np.uint64))
         self._echelon = linalg.rref(self._basis, n=self._n).sorted()
         self._dropped = int(dropped)
-        self.name = name
-        self.recipe: tuple[dict[str, Any], ...] = tuple(dict(s) for s in (recipe or ()))
-        self.d_lower = None if d_lower is None else int(d_lower)
-        self.d_upper = None if d_upper is None else int(d_upper)
+        self._name = name
+        self._recipe: tuple[dict[str, Any], ...] = tuple(dict(s) for s in (recipe or ()))
+        self._d_lower = None if d_lower is None else int(d_lower)
+        self._d_upper = None if d_upper is None else int(d_upper)
+        self._memo: dict[str, Any] = {}
+
+    @property
+    def name(self) -> str | None:
+        """A human-readable name (metadata; change it with :meth:`with_info`)."""
+        return self._name
+
+    @property
+    def recipe(self) -> tuple[dict[str, Any], ...]:
+        """How the code was made: a tuple of steps (see :mod:`gf2codes.derive`)."""
+        return self._recipe
+
+    @property
+    def d_lower(self) -> int | None:
+        """A lower bound on d that the construction proves, or None."""
+        return self._d_lower
+
+    @property
+    def d_upper(self) -> int | None:
+        """An upper bound on d that the construction proves, or None."""
+        return self._d_upper
 
     # ------------------------------------------------------------------ builders
     @classmethod
-    def from_parity_check(cls, parity_check: npt.ArrayLike, **kwargs: Any) -> Code:
+    def from_parity_check(cls, parity_check: npt.ArrayLike, *, name: str | None = None,
+                          recipe: Sequence[Mapping[str, Any]] | None = None,
+                          d_lower: int | None = None, d_upper: int | None = None) -> Code:
         """The code ``{c : H c^T = 0}`` of a parity-check matrix ``H`` of any rank.
 
         :attr:`dropped_rows` counts the dependent rows of ``H``.
@@ -126,12 +163,15 @@ class Code:
                 f"Argument 'parity_check' has full rank {H.shape[1]} = n: the code it "
                 "defines is only the zero word (k = 0)."
             )
-        code = cls.from_packed(linalg.pack(G), H.shape[1], **kwargs)
+        code = cls.from_packed(linalg.pack(G), H.shape[1], name=name, recipe=recipe,
+                               d_lower=d_lower, d_upper=d_upper)
         code._dropped = H.shape[0] - r
         return code
 
     @classmethod
-    def from_packed(cls, rows: np.ndarray, n: int, **kwargs: Any) -> Code:
+    def from_packed(cls, rows: np.ndarray, n: int, *, name: str | None = None,
+                    recipe: Sequence[Mapping[str, Any]] | None = None,
+                    d_lower: int | None = None, d_upper: int | None = None) -> Code:
         """Build from packed ``uint64`` rows (``n`` columns); dependent rows are dropped."""
         rows = np.array(rows, dtype=np.uint64, order="C", ndmin=2)
         e = linalg.rref(rows, n=n)
@@ -142,8 +182,7 @@ class Code:
         else:
             basis = rows[linalg.independent_rows(linalg.unpack(rows, n))]
         self = cls.__new__(cls)
-        self._init(basis, n, rows.shape[0] - e.rank, kwargs.get("name"), kwargs.get("recipe"),
-                   kwargs.get("d_lower"), kwargs.get("d_upper"))
+        self._init(basis, n, rows.shape[0] - e.rank, name, recipe, d_lower, d_upper)
         return self
 
     def with_info(self, **changes: Any) -> Code:
@@ -157,11 +196,12 @@ class Code:
         new._basis = self._basis
         new._echelon = self._echelon
         new._dropped = self._dropped
-        new.name = changes.get("name", self.name)
-        rec = changes.get("recipe", self.recipe)
-        new.recipe = tuple(dict(s) for s in rec)
-        new.d_lower = changes.get("d_lower", self.d_lower)
-        new.d_upper = changes.get("d_upper", self.d_upper)
+        new._name = changes.get("name", self._name)
+        new._recipe = tuple(dict(s) for s in changes.get("recipe", self._recipe))
+        lo, hi = changes.get("d_lower", self._d_lower), changes.get("d_upper", self._d_upper)
+        new._d_lower = None if lo is None else int(lo)
+        new._d_upper = None if hi is None else int(hi)
+        new._memo = self._memo  # the same subspace: the same derived matrices
         return new
 
     # ---------------------------------------------------------------- parameters
@@ -198,17 +238,17 @@ class Code:
     def words(self) -> int:
         return int(self._basis.shape[1])
 
-    @cached_property
+    @_memoised
     def G(self) -> np.ndarray:
         """Generator matrix (``uint8``, ``k x n``): the independent input rows, in order."""
         return _readonly(linalg.unpack(self._basis, self._n))
 
-    @cached_property
+    @_memoised
     def H(self) -> np.ndarray:
         """Parity-check matrix (``uint8``, ``(n - k) x n``, full rank)."""
         return _readonly(linalg.null_space(self._basis, n=self._n))
 
-    @cached_property
+    @_memoised
     def rref_generator(self) -> np.ndarray:
         """The canonical generator: reduced row echelon form (unique for the subspace)."""
         return _readonly(self._echelon.bits())
@@ -265,11 +305,11 @@ class Code:
         return bool(self.contains(np.asarray(word)))
 
     # ---------------------------------------------------------------- properties
-    @cached_property
+    @_memoised
     def _row_weights(self) -> np.ndarray:
         return self.G.sum(axis=1, dtype=np.int64)
 
-    @cached_property
+    @_memoised
     def is_self_orthogonal(self) -> bool:
         """``C ⊆ C^⊥``: every two codewords (a codeword with itself included) are orthogonal."""
         if 2 * self.k > self._n:  # C ⊆ C^⊥ needs k <= n - k
@@ -277,12 +317,12 @@ class Code:
         G = self.G  # uint8: the product wraps modulo 256, which keeps its parity
         return not ((G @ G.T) & 1).any()
 
-    @cached_property
+    @_memoised
     def is_even(self) -> bool:
         """Every codeword has even weight (equivalently, every basis row does)."""
         return bool((self._row_weights % 2 == 0).all())
 
-    @cached_property
+    @_memoised
     def is_doubly_even(self) -> bool:
         """Every codeword has weight divisible by 4.
 
@@ -291,12 +331,12 @@ class Code:
         """
         return bool((self._row_weights % 4 == 0).all()) and self.is_self_orthogonal
 
-    @cached_property
+    @_memoised
     def is_self_dual(self) -> bool:
         """``C = C^⊥``."""
         return 2 * self.k == self._n and self.is_self_orthogonal
 
-    @cached_property
+    @_memoised
     def is_dual_containing(self) -> bool:
         """``C^⊥ ⊆ C`` (the condition of the CSS construction of quantum codes)."""
         if self.k == self._n:

@@ -109,3 +109,29 @@ def test_dual_of_full_space():
 def test_with_info_keeps_matrices(hamming74):
     C = hamming74.with_info(name="h", recipe=[{"family": "hamming", "m": 3}], d_lower=3)
     assert C == hamming74 and C.name == "h" and C.recipe == ({"family": "hamming", "m": 3},)
+
+
+def test_a_code_cannot_be_changed_after_it_is_made(hamming74):
+    """Issue 13, point 5: ``C.d_lower = 5`` silently changed a claimed distance."""
+    import pytest
+
+    C = hamming74.with_info(d_lower=3, d_upper=3)
+    for attr, value in (("d_lower", 5), ("d_upper", 9), ("name", "x"), ("recipe", ())):
+        with pytest.raises(AttributeError):
+            setattr(C, attr, value)
+    with pytest.raises(AttributeError):
+        C.anything = 1  # no __dict__
+    assert (C.d_lower, C.d_upper) == (3, 3)
+    D = C.with_info(d_lower=None)
+    assert D.d_lower is None and C.d_lower == 3 and D.k == C.k
+
+
+def test_builders_refuse_misspelled_keywords(hamming74):
+    import pytest
+
+    from gf2codes.code import Code
+
+    with pytest.raises(TypeError, match="d_lowr"):
+        Code.from_packed(hamming74.packed_generator, 7, d_lowr=3)
+    with pytest.raises(TypeError, match="nmae"):
+        Code.from_parity_check(hamming74.H, nmae="h")
