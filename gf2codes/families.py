@@ -78,6 +78,7 @@ galois = _LazyModule("galois")
 
 __all__ = [
     "MAX_LENGTH",
+    "berlekamp_factors",
     "repetition",
     "even_weight",
     "hamming",

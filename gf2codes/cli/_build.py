@@ -96,7 +96,7 @@ def emit(code: Code, args: argparse.Namespace, lines: list[str],
                                        **(extra if fmt == "json" else {})),
             args.output, fallback))
     if args.verify:
-        from ._verify import report  # the lead's module; imported only when asked for
+        from ._verify import report  # imported only when --verify asks for it
 
         if not args.json:
             _print_lines(lines + ([f"  wrote {written}"] if written else []))
