@@ -241,3 +241,18 @@ def test_information_sets_in_json(tmp_path, capsys, golay24):
         assert all(set(s) == {"rank", "levels_done", "contribution"} for s in sets)
     else:  # Gray code: no information sets
         assert out["d_information_sets"] == []
+
+
+def test_an_unreadable_directory_is_one_error_line(tmp_path, monkeypatch, capsys):
+    """Simulated (the tests may run as root, whom chmod does not stop)."""
+    folder = tmp_path / "locked"
+    folder.mkdir()
+
+    def denied(path):
+        raise PermissionError(13, "Permission denied", str(path))
+
+    monkeypatch.setattr(os, "listdir", denied)
+    assert main(["verify", str(folder)]) == 2
+    err = capsys.readouterr().err
+    assert "cannot read the directory" in err and "Permission denied" in err
+    assert err.count("\n") == 1

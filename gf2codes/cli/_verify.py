@@ -130,7 +130,12 @@ def _expand_inputs(paths: list[str]) -> list[str]:
     out: list[str] = []
     for path in paths:
         if os.path.isdir(path):
-            found = sorted(os.path.join(path, name) for name in os.listdir(path)
+            try:
+                names = os.listdir(path)
+            except OSError as exc:
+                raise ParameterError(f"cannot read the directory {path!r} "
+                                     f"({exc.strerror}).") from None
+            found = sorted(os.path.join(path, name) for name in names
                            if name.lower().endswith(MATRIX_SUFFIXES)
                            and os.path.isfile(os.path.join(path, name)))
             if not found:
