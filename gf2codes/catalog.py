@@ -130,6 +130,7 @@ import json
 import math
 import os
 import sqlite3
+import time
 from collections.abc import Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field
 from datetime import datetime, timezone
@@ -367,6 +368,24 @@ def _read_provenance(text: str | None) -> Provenance:
     except json.JSONDecodeError:
         obj = None
     return Provenance.from_dict(obj) if isinstance(obj, dict) else _CLAIMED_BEFORE
+
+
+def _set_wal(con: sqlite3.Connection) -> None:
+    """Switch to write-ahead logging, waiting while another process holds the lock.
+
+    SQLite answers "database is locked" at once, without its busy handler, when two
+    processes open a new catalog file at the same moment and both ask for WAL; so the
+    request is repeated for up to ``_BUSY_SECONDS``.
+    """
+    deadline = time.monotonic() + _BUSY_SECONDS
+    while True:
+        try:
+            con.execute("PRAGMA journal_mode = WAL")
+            return
+        except sqlite3.OperationalError as exc:
+            if "locked" not in str(exc) or time.monotonic() > deadline:
+                raise
+            time.sleep(0.02)
 
 
 # ------------------------------------------------------------------ locations
@@ -1241,7 +1260,7 @@ class Catalog:
         try:
             con = sqlite3.connect(str(p), timeout=_BUSY_SECONDS, isolation_level=None)
             con.execute(f"PRAGMA busy_timeout = {int(_BUSY_SECONDS * 1000)}")
-            con.execute("PRAGMA journal_mode = WAL")
+            _set_wal(con)
             con.execute("PRAGMA synchronous = FULL")
             con.execute("PRAGMA foreign_keys = ON")
         except sqlite3.OperationalError as exc:
