@@ -354,7 +354,7 @@ def _lp_size_primal_side(n: int, d: int) -> int | None:
     Returns the integer bound, or ``None`` if nothing was proved.
     """
     import numpy as np
-    from scipy.optimize import linprog
+    from scipy.optimize import linprog  # type: ignore[import-untyped]  # no stubs installed
 
     weights = list(range(d + (d % 2), n + 1, 2))
     if not weights:
@@ -392,7 +392,7 @@ def _lp_size_dual_side(n: int, d: int) -> Fraction | None:
     Returns the proved lower bound on ``2^(n-k)``, or ``None``.
     """
     import numpy as np
-    from scipy.optimize import linprog
+    from scipy.optimize import linprog  # type: ignore[import-untyped]  # no stubs installed
 
     Q = _krawtchouk_normalised(n)
     P = list(range(1, n // 2 + 1))

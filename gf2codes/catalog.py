@@ -511,7 +511,7 @@ def _all_words(basis: np.ndarray) -> np.ndarray:
 
 
 def _light_graph(light: np.ndarray, weights: np.ndarray, n: int):
-    import networkx as nx
+    import networkx as nx  # type: ignore[import-untyped]  # untyped third-party module
 
     g = nx.Graph()
     g.add_nodes_from((j, {"label": "c"}) for j in range(n))
@@ -561,7 +561,7 @@ def code_facts(code: Code) -> CodeFacts:
     if light.shape[0] > MAX_GRAPH_WORDS:
         return CodeFacts(subspace, weights, f"coarse:{n}:{k}:{wdig}:{light.shape[0]}",
                          "coarse")
-    import networkx as nx
+    import networkx as nx  # type: ignore[import-untyped]  # untyped third-party module
 
     graph = _light_graph(light, wts[sel], n)
     wl = nx.weisfeiler_lehman_graph_hash(graph, node_attr="label", iterations=3)

@@ -261,8 +261,8 @@ def _binomials(n: int) -> tuple[int, ...]:
 def _binomial_sum(coefficients: Sequence[int], n: int, p: Probability) -> Probability:
     """``sum_i c_i p^i (1-p)^(n-i)`` over ``i = 0 .. len(c) - 1`` (c_i >= 0 integers)."""
     if isinstance(p, Fraction):
-        q = 1 - p
-        return sum((Fraction(c) * p**i * q ** (n - i) for i, c in enumerate(coefficients) if c),
+        qf = 1 - p
+        return sum((Fraction(c) * p**i * qf ** (n - i) for i, c in enumerate(coefficients) if c),
                    Fraction(0))
     if p == 0.0:
         return float(coefficients[0]) if coefficients else 0.0
@@ -599,7 +599,7 @@ def clopper_pearson_interval(events: int, trials: int,
     >>> lo, round(hi, 5)
     (0.0, 0.00368)
     """
-    from scipy.stats import beta
+    from scipy.stats import beta  # type: ignore[import-untyped]  # no stubs installed
 
     events, trials, confidence = _check_interval_args(events, trials, confidence)
     a = 1 - confidence

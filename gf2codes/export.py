@@ -402,7 +402,7 @@ def tanner_graph(code: Code, parity_check: np.ndarray | None = None):
     >>> g.number_of_nodes(), g.number_of_edges()
     (10, 12)
     """
-    import networkx as nx
+    import networkx as nx  # type: ignore[import-untyped]  # untyped third-party module
 
     H = systematic_encoder(code).parity_check if parity_check is None else np.asarray(
         parity_check, dtype=np.uint8)
@@ -453,7 +453,7 @@ def export_code(code: Code, fmt: str, *, prefix: str = "gf2code") -> bytes:
         buf = io.BytesIO()
         np.save(buf, systematic_encoder(code).generator)
         return buf.getvalue()
-    import networkx as nx
+    import networkx as nx  # type: ignore[import-untyped]  # untyped third-party module
 
     buf = io.BytesIO()
     nx.write_graphml(tanner_graph(code), buf)

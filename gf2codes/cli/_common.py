@@ -10,9 +10,12 @@ import sys
 import unicodedata
 from collections.abc import Callable
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from rich.console import Console
+
+if TYPE_CHECKING:  # pragma: no cover
+    from rich.progress import Progress, TaskID
 
 from ..exceptions import Gf2CodesError, ParameterError
 
@@ -290,8 +293,8 @@ class ProgressBar:
         self._start = self._time()
         self._delay = delay
         self._label = label
-        self._bar = None
-        self._task = None
+        self._bar: Progress | None = None
+        self._task: TaskID | None = None
 
     def __enter__(self) -> ProgressBar:
         return self
@@ -323,4 +326,5 @@ class ProgressBar:
             note = f"{info['lower']} <= d <= {info['upper']}"
         elif "note" in info:
             note = str(info["note"])
+        assert self._task is not None
         self._bar.update(self._task, completed=done, total=max(total, done), note=note)

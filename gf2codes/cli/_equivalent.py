@@ -51,6 +51,7 @@ def run(args: argparse.Namespace) -> int:
                     "b": {"n": b.n, "k": b.k}})
         return status
     if result.equivalent:
+        assert result.permutation is not None
         console.print(f"equivalent: {result.reason}")
         console.print("permutation (coordinate j of A -> p[j] of B): "
                       + " ".join(str(p) for p in result.permutation), soft_wrap=True)

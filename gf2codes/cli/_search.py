@@ -45,7 +45,7 @@ from ._text import matrix_block
 try:
     from .. import catalog
 except ImportError:  # the catalog module is optional (written separately)
-    catalog = None
+    catalog = None  # type: ignore[assignment]  # optional module: None when absent
 
 __all__ = ["register", "run"]
 

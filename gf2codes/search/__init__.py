@@ -218,5 +218,6 @@ def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
 
 
 for _f in (search_length, search_distance, search_dimension):
+    assert _f.__doc__ is not None
     _f.__doc__ = _f.__doc__.rstrip() + "\n" + _DOC_COMMON
 del _f

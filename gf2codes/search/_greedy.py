@@ -72,6 +72,7 @@ def greedy_parity_columns(r: int, D: int, n_max: int, prio: np.ndarray,
     cols = np.zeros(max(n_max, 1), dtype=np.uint64)
     nf = 0 if fixed is None else len(fixed)
     if nf:
+        assert fixed is not None
         cols[:nf] = fixed
     got = _kernels.greedy_columns(r, D - 2, n_max, np.ascontiguousarray(prio, np.uint64),
                                   cols, nf)

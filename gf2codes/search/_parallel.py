@@ -63,6 +63,7 @@ def run_portfolio_parallel(mode: str, *, n: int | None, k: int | None, d: int | 
     finally:
         stream.close()
     best = _merge(mode, results, len(payloads), final=True)
+    assert best is not None
     stats = {}
     for i in sorted(results):
         stats.update(results[i].stats)
