@@ -133,10 +133,6 @@ def _coords(code: Code, coords: Iterable[int] | int | str, op: str) -> list[int]
     return sorted(out)
 
 
-def _known(*values: int | None) -> bool:
-    return all(v is not None for v in values)
-
-
 def _min_known(*values: int | None) -> int | None:
     vals = [v for v in values if v is not None]
     return min(vals) if vals else None
@@ -304,7 +300,7 @@ def direct_sum(a: Code, b: Code) -> Code:
     G = np.zeros((a.k + b.k, a.n + b.n), dtype=np.uint8)
     G[: a.k, : a.n] = a.G
     G[a.k:, a.n:] = b.G
-    lo = min(a.d_lower, b.d_lower) if _known(a.d_lower, b.d_lower) else None
+    lo = min(a.d_lower, b.d_lower) if a.d_lower is not None and b.d_lower is not None else None
     return _result(G, a, {"op": "direct-sum", "other": recipe_of(b)}, "direct sum",
                    lo, _min_known(a.d_upper, b.d_upper))
 
@@ -336,7 +332,7 @@ def plotkin_sum(u_code: Code, v_code: Code) -> Code:
     G[: u_code.k, n:] = u_code.G
     G[u_code.k:, n:] = v_code.G
     lo = (min(2 * u_code.d_lower, v_code.d_lower)
-          if _known(u_code.d_lower, v_code.d_lower) else None)
+          if u_code.d_lower is not None and v_code.d_lower is not None else None)
     hi = _min_known(None if u_code.d_upper is None else 2 * u_code.d_upper, v_code.d_upper)
     return _result(G, u_code, {"op": "plotkin-sum", "v": recipe_of(v_code)}, "Plotkin sum",
                    lo, hi)
@@ -408,7 +404,8 @@ def construction_x(code: Code, subcode: Code, auxiliary: Code) -> Code:
     G[subcode.k:, : code.n] = np.array(reps)
     G[subcode.k:, code.n:] = auxiliary.rref_generator
     lo = (min(subcode.d_lower, code.d_lower + auxiliary.d_lower)
-          if _known(subcode.d_lower, code.d_lower, auxiliary.d_lower) else None)
+          if subcode.d_lower is not None and code.d_lower is not None
+          and auxiliary.d_lower is not None else None)
     step = {"op": "construction-x", "subcode": recipe_of(subcode),
             "auxiliary": recipe_of(auxiliary)}
     return _result(G, code, step, "construction X", lo, subcode.d_upper)
@@ -425,8 +422,8 @@ def product(a: Code, b: Code) -> Code:
     (9, 4, 4, 4)
     """
     G = np.kron(a.G.astype(np.int64), b.G.astype(np.int64)).astype(np.uint8)
-    lo = a.d_lower * b.d_lower if _known(a.d_lower, b.d_lower) else None
-    hi = a.d_upper * b.d_upper if _known(a.d_upper, b.d_upper) else None
+    lo = a.d_lower * b.d_lower if a.d_lower is not None and b.d_lower is not None else None
+    hi = a.d_upper * b.d_upper if a.d_upper is not None and b.d_upper is not None else None
     return _result(G, a, {"op": "product", "other": recipe_of(b)}, "product", lo, hi)
 
 
