@@ -135,7 +135,7 @@ from collections.abc import Iterable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field
 from datetime import datetime, timezone
 from pathlib import Path
-from typing import Any, Literal
+from typing import Any, Literal, overload
 
 import numpy as np
 
@@ -533,7 +533,7 @@ def code_facts(code: Code) -> CodeFacts:
     subspace = _subspace_digest(code)
     n, k = code.n, code.k
     if k == n:
-        weights = [math.comb(n, i) for i in range(n + 1)]
+        weights: list[int] | None = [math.comb(n, i) for i in range(n + 1)]
         return CodeFacts(subspace, weights, f"{_INVARIANT_SCHEME}:full:{n}", "full")
     side_name, side = ("code", code) if k <= n - k else ("dual", code.dual())
     if side.k > _MAX_SIDE_DIM:
@@ -730,6 +730,7 @@ def are_equivalent(a: Code, b: Code, *, facts_a: CodeFacts | None = None,
         return Equivalence(None, None, "too large for the exact test (the smaller of the "
                            "code and its dual has too many codewords or light words)")
     side = "code" if fa.side == "code" else "dual code"
+    assert fa.light is not None and fb.light is not None  # code_facts sets it past the checks above
     if fa.w_star != fb.w_star or fa.light.shape[0] != fb.light.shape[0]:
         return Equivalence(False, None, f"the light words spanning the {side} differ "
                            f"(weights <= {fa.w_star}: {fa.light.shape[0]} words; weights "
@@ -888,6 +889,7 @@ class Entry:
         if self._code is None:
             proved = self.provenance.proved
             if self._base is None:
+                assert self._generator is not None  # an entry without a base has one
                 recipe = next((r["recipe"] for r in self.recipes
                                if r.get("recipe") and r.get("permutation") is None
                                and r["source"] != "search"), None)
@@ -1038,6 +1040,10 @@ def _rows(obj: Any, n: int | None, source: str) -> np.ndarray:
     return parse_text_matrix("\n".join(rows), source=f"{source} (generator)")
 
 
+@overload
+def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: Literal[False]) -> int: ...
+@overload
+def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: bool = True) -> int | None: ...
 def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: bool = True) -> int | None:
     v = obj.get(key)
     if v is None and null:
@@ -1235,7 +1241,7 @@ class Catalog:
             raise CatalogError(f"{self.path}: no catalog there (nothing was created).")
         self._con = self._connect()
         self._arrays: tuple[np.ndarray, ...] | None = None
-        self._arrays_version: int | None = None
+        self._arrays_version: tuple[Any, Any] | None = None
         self._init_schema(shipped)
 
     # ---------------------------------------------------------------- opening
@@ -1420,7 +1426,8 @@ class Catalog:
                 origin: str | None = None) -> list[Entry]:
         """Stored entries, filtered: each of ``n``, ``k``, ``d`` is an int, a range or a
         ``(low, high)`` pair (inclusive); ``d`` filters on the proved lower bound."""
-        where, params = [], []
+        where: list[str] = []
+        params: list[int | str] = []
         for col, val in (("n", n), ("k", k), ("d_lower", d)):
             if val is None:
                 continue
@@ -1736,6 +1743,7 @@ class Catalog:
                  None if proof is None else _dumps(proof), added or now,
                  added_by or __version__, origin, _dumps(prov.to_dict())))
             eid = cur.lastrowid
+            assert eid is not None  # set by the INSERT
             status = "added"
         else:
             old_lo, old_hi, old_text, old_weights = cur.execute(
