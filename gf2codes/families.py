@@ -52,7 +52,7 @@ import re
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from itertools import combinations
-from typing import Any
+from typing import TYPE_CHECKING, Any, cast
 
 import numpy as np
 import numpy.typing as npt
@@ -74,7 +74,10 @@ class _LazyModule:
         return getattr(importlib.import_module(self._name), attr)
 
 
-galois = _LazyModule("galois")
+if TYPE_CHECKING:  # pragma: no cover
+    import galois
+else:
+    galois = _LazyModule("galois")
 
 __all__ = [
     "MAX_LENGTH",
@@ -291,7 +294,7 @@ class _FieldTables:
         out = self.exp[self.log[a] + self.log[b]]
         return np.where((a == 0) | (b == 0), 0, out)
 
-    def power(self, e: np.ndarray) -> np.ndarray:
+    def power(self, e: npt.ArrayLike) -> np.ndarray:
         """``alpha^e`` for integer exponents."""
         return self.exp[np.asarray(e, dtype=np.int64) % self.order]
 
@@ -916,7 +919,8 @@ def quasi_cyclic(rows: Sequence[str] | npt.ArrayLike, m: int) -> Code:
     m = check_int("m", m, minimum=1, maximum=MAX_LENGTH)
     if isinstance(rows, str):
         rows = [rows]
-    vecs = [_parse_bits("rows", r) for r in (rows if not isinstance(rows, np.ndarray) else
+    vecs = [_parse_bits("rows", r) for r in (cast("Sequence[Any]", rows)
+                                              if not isinstance(rows, np.ndarray) else
                                               list(rows))]
     if not vecs:
         raise ParameterError("Argument 'rows' must hold at least one row.")
@@ -981,11 +985,12 @@ def from_rows(generator: Sequence[str] | npt.ArrayLike, n: int | None = None) ->
     """
     if isinstance(generator, str):
         generator = [generator]
+    seq = cast("Sequence[Any]", generator)  # used only where it is not an ndarray
     if isinstance(generator, np.ndarray) or (
-            len(generator) and not isinstance(generator[0], str)):
+            len(seq) and not isinstance(seq[0], str)):
         bits = np.asarray(generator, dtype=np.int64)
     else:
-        vecs = [_parse_bits("generator", r) for r in generator]
+        vecs = [_parse_bits("generator", r) for r in seq]
         if not vecs or len({v.size for v in vecs}) != 1:
             raise ParameterError("Argument 'generator' must hold rows of one length.")
         bits = np.array(vecs)
