@@ -12,7 +12,7 @@ References
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from typing import Any
+from typing import Any, cast
 
 import numpy as np
 import numpy.typing as npt
@@ -299,7 +299,7 @@ class Code:
         s = self.syndrome(w)
         if w.ndim == 1:
             return not s.any()
-        return ~s.any(axis=1)
+        return cast(np.ndarray, ~s.any(axis=1))  # 2-d: an array, one per row
 
     def __contains__(self, word: object) -> bool:
         return bool(self.contains(np.asarray(word)))

@@ -16,7 +16,7 @@ References
 
 from __future__ import annotations
 
-from typing import Any
+from typing import Any, cast
 
 import numpy as np
 import numpy.typing as npt
@@ -273,7 +273,7 @@ def in_row_space(matrix: BitMatrixLike, vectors: BitMatrixLike) -> np.ndarray:
     H = null_space(M)
     if H.shape[0] == 0:
         return np.ones(V.shape[0], dtype=bool)
-    return ~((V.astype(np.int64) @ H.T.astype(np.int64)) & 1).any(axis=1)
+    return cast(np.ndarray, ~((V.astype(np.int64) @ H.T.astype(np.int64)) & 1).any(axis=1))
 
 
 def to_galois(bits: BitMatrixLike) -> Any:

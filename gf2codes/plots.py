@@ -16,12 +16,13 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, cast
 
 from .exceptions import Gf2CodesError, MissingDependencyError, ParameterError, check_int
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
+    from matplotlib.ticker import MaxNLocator
 
     from .decoding import SimulationResult
 
@@ -328,8 +329,9 @@ def bounds_figure(k: int, n_values: Sequence[int], *, mark: Sequence[tuple[int, 
     ax.grid(True, alpha=0.3)
     ax.set_xlim(ns[0] - 0.5, ns[-1] + 0.5)
     ax.set_ylim(0, max(max(best), max((m[1] for m in mark), default=0)) + 1)
-    ax.yaxis.get_major_locator().set_params(integer=True)
-    ax.xaxis.get_major_locator().set_params(integer=True)
+    # the default locator (AutoLocator) is a MaxNLocator, which takes ``integer``
+    cast("MaxNLocator", ax.yaxis.get_major_locator()).set_params(integer=True)
+    cast("MaxNLocator", ax.xaxis.get_major_locator()).set_params(integer=True)
     fig.legend(fontsize="small", loc="outside right upper")
     return fig
 
