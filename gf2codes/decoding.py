@@ -60,7 +60,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import asdict, dataclass, field
 from fractions import Fraction
 from functools import lru_cache
-from typing import Any
+from typing import Any, overload
 
 import numpy as np
 
@@ -282,6 +282,10 @@ def _binomial_sum(coefficients: Sequence[int], n: int, p: Probability) -> Probab
     return math.fsum(terms)
 
 
+@overload
+def block_error_probability(leaders: CosetLeaders, p: Fraction) -> Fraction: ...
+@overload
+def block_error_probability(leaders: CosetLeaders, p: float) -> float: ...
 def block_error_probability(leaders: CosetLeaders, p: Probability) -> Probability:
     """Block-error probability of complete syndrome decoding on a BSC.
 
@@ -314,6 +318,10 @@ def block_error_probability(leaders: CosetLeaders, p: Probability) -> Probabilit
     return _binomial_sum([c - a for c, a in zip(_binomials(n), alpha, strict=False)], n, p)
 
 
+@overload
+def undetected_error_probability(distribution: Sequence[int], p: Fraction) -> Fraction: ...
+@overload
+def undetected_error_probability(distribution: Sequence[int], p: float) -> float: ...
 def undetected_error_probability(distribution: Sequence[int], p: Probability) -> Probability:
     """Probability that the channel turns a codeword into another codeword.
 
@@ -333,6 +341,10 @@ def undetected_error_probability(distribution: Sequence[int], p: Probability) ->
     return _binomial_sum([0] + A[1:], len(A) - 1, p)
 
 
+@overload
+def bounded_distance_failure_probability(n: int, t: int, p: Fraction) -> Fraction: ...
+@overload
+def bounded_distance_failure_probability(n: int, t: int, p: float) -> float: ...
 def bounded_distance_failure_probability(n: int, t: int, p: Probability) -> Probability:
     """Probability that more than ``t`` of ``n`` bits are flipped.
 
