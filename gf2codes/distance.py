@@ -1039,6 +1039,7 @@ def _isd(code: Code, rng: np.random.Generator, iterations: int | None,
             if wt < best_w:
                 best_w = int(wt)
                 best_word = np.bitwise_xor.reduce(e.rows[combo[:w]], axis=0)
+    assert best_word is not None  # k >= 1: the first generator row set it
     return best_w, best_word, examined
 
 

@@ -6,7 +6,7 @@ import argparse
 import dataclasses
 import os
 import time
-from typing import Any
+from typing import Any, cast
 
 from rich.markup import escape
 from rich.table import Table
@@ -192,7 +192,7 @@ def _distance(code: Code, method: str, time_limit: float | None, target_d: int |
         except TooExpensiveError as exc:
             raise TooExpensiveError(
                 f"proving d of this [{code.n},{code.k}] code needs about {exc.work:.2g} "
-                f"codewords, roughly {human_seconds(exc.seconds)} on one core. Use "
+                f"codewords, roughly {human_seconds(cast(float, exc.seconds))} on one core. Use "
                 "--time-limit S for the interval proved within S seconds, or --method fast "
                 "for a quick interval.", work=exc.work, seconds=exc.seconds,
             ) from None
