@@ -367,7 +367,11 @@ def nobody_dir():
     prefix = _as_nobody()
     if prefix is None:
         pytest.skip("needs root and setpriv to run a process as another user")
-    probe = subprocess.run([*prefix, sys.executable, "-c", "import gf2codes.cli"],
+    # Import what the commands below load (their third-party modules too): a venv in a
+    # folder only root may enter lets nobody import the checkout but not rich or numba.
+    probe = subprocess.run([*prefix, sys.executable, "-c",
+                            "import gf2codes.cli._verify, gf2codes.cli._catalog, "
+                            "gf2codes.cli._build, numba, rich"],
                            env={"PATH": os.environ.get("PATH", ""), "PYTHONPATH": str(ROOT)},
                            capture_output=True, text=True, timeout=120, cwd="/")
     if probe.returncode != 0:  # e.g. a checkout or venv in a folder only root may enter
