@@ -1,0 +1,52 @@
+"""Names for the small sets of values the API passes around.
+
+Each alias is a :data:`typing.Literal`, so a type checker catches a misspelt value and
+the documentation lists the choices. They are plain strings at run time (JSON output and
+stored records keep their spelling).
+
+>>> from gf2codes.typing import QUESTIONS
+>>> QUESTIONS
+('length', 'distance', 'dimension')
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING, Literal, Union, get_args
+
+if TYPE_CHECKING:  # numpy is not imported at run time: `gf2codes --help` needs no numpy
+    import numpy as np
+
+__all__ = [
+    "Question", "QUESTIONS", "DistanceMethod", "DISTANCE_METHODS", "StopReason",
+    "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "SeedLike",
+]
+
+#: What a search optimises with the other two of n, k, d fixed: the shortest ``length``
+#: for (k, d), the greatest ``distance`` for (n, k), the greatest ``dimension`` for (n, d).
+Question = Literal["length", "distance", "dimension"]
+QUESTIONS: tuple[Question, ...] = get_args(Question)
+
+#: The proof routes of :func:`gf2codes.distance.minimum_distance` (``auto`` picks one).
+DistanceMethod = Literal["auto", "gray", "brouwer-zimmermann", "dual-columns"]
+DISTANCE_METHODS: tuple[DistanceMethod, ...] = get_args(DistanceMethod)
+
+#: Why a long computation ended before it finished (``None`` where it finished).
+StopReason = Literal["time limit", "interrupted", "node budget", "step limit", "cell limit",
+                     "upper bound only", "propagation", "target met", "bound attained",
+                     "below target", "finished", "stopped", "undecided"]
+
+#: How far a catalog entry is trusted: proved here, checked (re-proved from a record),
+#: or only claimed by its source.
+ProvenanceKind = Literal["proved", "checked", "claimed"]
+
+#: The answer of an exhaustive existence decision for an [n, k, d] code.
+ExistenceStatus = Literal["exists", "none", "undecided"]
+
+#: What the growth job did to one cell.
+Outcome = Literal["improved", "unchanged", "closed"]
+
+#: Which side of a code a computation used: the code itself or its dual.
+Side = Literal["code", "dual"]
+
+#: A seed for the random functions: an int >= 0, a numpy Generator, or None (fresh).
+SeedLike = Union[int, "np.random.Generator", None]
