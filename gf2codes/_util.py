@@ -6,8 +6,10 @@ limit means the same thing (seconds of wall time from the start of the call).
 
 from __future__ import annotations
 
+import functools
 import time
-from typing import TYPE_CHECKING
+from collections.abc import Callable
+from typing import TYPE_CHECKING, Any, TypeVar
 
 from .exceptions import ParameterError, check_int
 
@@ -16,7 +18,41 @@ if TYPE_CHECKING:
 
     from .typing import SeedLike
 
-__all__ = ["rng", "Clock", "deadline_after", "past"]
+__all__ = ["rng", "Clock", "deadline_after", "past", "memo", "clear_caches"]
+
+F = TypeVar("F", bound=Callable[..., Any])
+_CACHES: list[Any] = []
+
+
+def memo(maxsize: int) -> Callable[[F], F]:
+    """A bounded memo (``functools.lru_cache(maxsize)``) that :func:`clear_caches` empties.
+
+    Every module-level memo of the package is declared with this, so no cache grows
+    without limit and one call frees them all.
+
+    >>> @memo(4)
+    ... def square(x): return x * x
+    >>> square(3), square.cache_info().currsize
+    (9, 1)
+    >>> clear_caches(); square.cache_info().currsize
+    0
+    """
+    if not isinstance(maxsize, int) or maxsize < 1:
+        raise ValueError("memo needs a positive maxsize")
+
+    def wrap(func: F) -> F:
+        cached = functools.lru_cache(maxsize=maxsize)(func)
+        _CACHES.append(cached)
+        return cached  # type: ignore[return-value]
+
+    return wrap
+
+
+def clear_caches() -> None:
+    """Empty every memo declared with :func:`memo` (bounds tables, LP values in memory,
+    family constructions...). The on-disk memo of proved values is not touched."""
+    for cached in _CACHES:
+        cached.cache_clear()
 
 
 def rng(seed: SeedLike, name: str = "seed") -> np.random.Generator:
