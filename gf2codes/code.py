@@ -253,6 +253,17 @@ class Code:
         """The canonical generator: reduced row echelon form (unique for the subspace)."""
         return _readonly(self._echelon.bits())
 
+    @_memoised
+    def pivots(self) -> tuple[int, ...]:
+        """The pivot column of each row of :attr:`rref_generator`, increasing: an
+        information set of the code (the one every derivation and search uses).
+
+        >>> from gf2codes.families import hamming
+        >>> hamming(3).pivots
+        (0, 1, 2, 3)
+        """
+        return tuple(int(p) for p in np.sort(self._echelon.pivots))
+
     def systematic(self, column_order: npt.ArrayLike | None = None) -> linalg.Systematic:
         """Systematic form ``[I | A]`` with its column permutation."""
         return linalg.systematic_form(self.G, column_order=column_order)
