@@ -69,10 +69,6 @@ _MAX_EMBEDDED_BITS = 1 << 22
 
 
 # ----------------------------------------------------------------- helpers
-def _bits_string(row: np.ndarray) -> str:
-    return "".join("1" if b else "0" for b in np.asarray(row).tolist())
-
-
 def recipe_of(code: Code) -> list[dict[str, Any]]:
     """The recipe of ``code``, or a ``matrix`` step with its generator rows if it has none.
 
@@ -84,7 +80,7 @@ def recipe_of(code: Code) -> list[dict[str, Any]]:
     if code.n * code.k > _MAX_EMBEDDED_BITS:
         return [{"family": "matrix", "n": code.n, "k": code.k, "generator": None}]
     return [{"family": "matrix", "n": code.n,
-             "generator": [_bits_string(r) for r in code.rref_generator]}]
+             "generator": [linalg.bit_string(r) for r in code.rref_generator]}]
 
 
 def _name(code: Code, what: str) -> str | None:

@@ -57,6 +57,7 @@ from typing import TYPE_CHECKING, Any, cast
 import numpy as np
 import numpy.typing as npt
 
+from . import linalg
 from .code import Code
 from .exceptions import ParameterError, ParseError, check_int
 
@@ -117,10 +118,6 @@ _MAX_ROOT_FIELD_DEGREE = 16
 
 
 # ----------------------------------------------------------------- helpers
-def _bits_string(row: np.ndarray) -> str:
-    return "".join("1" if b else "0" for b in np.asarray(row).tolist())
-
-
 def _parse_bits(name: str, value: Any) -> np.ndarray:
     """A 0/1 vector from a string (``|``, spaces, commas ignored) or a sequence."""
     if isinstance(value, str):
@@ -943,7 +940,7 @@ def quasi_cyclic(rows: Sequence[str] | npt.ArrayLike, m: int) -> Code:
             G.append(np.roll(blocks, s, axis=1).reshape(-1))
     weights = [int(v.sum()) for v in vecs if v.any()]
     code = Code(np.array(G), name=None,
-                recipe=[{"family": "quasi-cyclic", "rows": [_bits_string(v) for v in vecs],
+                recipe=[{"family": "quasi-cyclic", "rows": [linalg.bit_string(v) for v in vecs],
                          "m": m}],
                 d_upper=min(weights) if weights else None)
     return code.with_info(name=f"quasi-cyclic [{code.n},{code.k}] index {ell}")
@@ -970,7 +967,7 @@ def double_circulant(first_row: str | npt.ArrayLike) -> Code:
     base = quasi_cyclic([np.concatenate([eye, a])], ell)
     return base.with_info(
         name=f"double circulant [{2 * ell},{ell}]",
-        recipe=[{"family": "double-circulant", "first_row": _bits_string(a)}],
+        recipe=[{"family": "double-circulant", "first_row": linalg.bit_string(a)}],
     )
 
 
@@ -1000,7 +997,7 @@ def from_rows(generator: Sequence[str] | npt.ArrayLike, n: int | None = None) ->
     return code.with_info(
         name=f"matrix [{code.n},{code.k}]",
         recipe=[{"family": "matrix", "n": code.n,
-                 "generator": [_bits_string(r) for r in code.rref_generator]}],
+                 "generator": [linalg.bit_string(r) for r in code.rref_generator]}],
     )
 
 

@@ -37,6 +37,7 @@ from typing import Any
 
 import numpy as np
 
+from . import linalg
 from .code import Code
 from .exceptions import ParameterError, ParseError
 
@@ -232,8 +233,7 @@ class CodeRecord:
 
 def rows_to_strings(bits: np.ndarray) -> list[str]:
     """Rows of a 0/1 matrix as strings of ``0`` and ``1``."""
-    b = np.asarray(bits, dtype=np.uint8)
-    return [(row + ord("0")).tobytes().decode("ascii") for row in b]
+    return [linalg.bit_string(row) for row in np.asarray(bits, dtype=np.uint8)]
 
 
 def _strings_to_rows(rows: Any, source: str, key: str) -> np.ndarray:

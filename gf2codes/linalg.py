@@ -28,6 +28,7 @@ __all__ = [
     "as_bits",
     "pack",
     "unpack",
+    "bit_string",
     "words_for",
     "rref",
     "rank",
@@ -89,6 +90,15 @@ def pack(bits: BitMatrixLike) -> np.ndarray:
     padded[:, :n] = b
     by = np.packbits(padded, axis=1, bitorder="little")
     return np.ascontiguousarray(by).view("<u8").astype(np.uint64, copy=False).reshape(r, W)
+
+
+def bit_string(row: npt.ArrayLike) -> str:
+    """A 0/1 row as a string of ``0`` and ``1`` (any non-zero entry is a 1).
+
+    >>> bit_string([1, 0, 0, 1])
+    '1001'
+    """
+    return (np.asarray(row).astype(bool).astype(np.uint8) + ord("0")).tobytes().decode("ascii")
 
 
 def unpack(packed: np.ndarray, n: int) -> np.ndarray:
