@@ -29,6 +29,8 @@ __all__ = [
     "popcount64",
     "ctz64",
     "rref_inplace",
+    "GRAY_TAIL",
+    "gray_layout",
     "gray_min_weight",
     "gray_weight_histogram",
     "combination_min_weight",
@@ -174,6 +176,26 @@ def _scan_find(s, T, lo, hi, W, target):  # pragma: no cover - compiled
         if wt == target:
             return i
     return -1
+
+
+#: Rows tabulated in Gray-code enumeration (a table of 2^12 sums).
+GRAY_TAIL = 12
+
+
+def gray_layout(rows: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The layout of :func:`gray_min_weight` and :func:`gray_weight_histogram` (NumPy, no
+    kernel): basis ``rows`` split into the outer rows (transposed, ``OT``), the table of
+    the ``2^b`` sums of the last ``b = min(GRAY_TAIL, k)`` rows (transposed, ``TT``), and
+    those ``b`` rows."""
+    k = rows.shape[0]
+    b = min(GRAY_TAIL, k)
+    tail = rows[k - b:]
+    table = np.zeros((1 << b, rows.shape[1]), dtype=np.uint64)
+    for j in range(b):
+        table[1 << j: 2 << j] = table[: 1 << j] ^ tail[j]
+    OT = np.ascontiguousarray(rows[: k - b].T)
+    TT = np.ascontiguousarray(table.T)
+    return OT, TT, tail
 
 
 @kernel(

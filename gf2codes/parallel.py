@@ -18,7 +18,7 @@ from __future__ import annotations
 import concurrent.futures as cf
 import multiprocessing
 import os
-from collections.abc import Callable, Iterator, Sequence
+from collections.abc import Callable, Generator, Sequence
 from typing import Any
 
 from .exceptions import Gf2CodesError, MissingDependencyError, ParameterError, check_int
@@ -34,8 +34,9 @@ class Executor:
     name: str = "executor"
 
     def run_unordered(self, fn: Callable[[Any], Any], items: Sequence[Any]
-                      ) -> Iterator[tuple[int, Any]]:
-        """Run ``fn(item)`` for every item; yield ``(index, result)`` as each finishes."""
+                      ) -> Generator[tuple[int, Any], None, None]:
+        """Run ``fn(item)`` for every item; yield ``(index, result)`` as each finishes
+        (closing the generator cancels the tasks not yet started)."""
         raise NotImplementedError
 
     def close(self) -> None:

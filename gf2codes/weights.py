@@ -32,7 +32,7 @@ import numpy as np
 
 from . import _kernels
 from .code import Code
-from .distance import ProgressCallback, _gray_layout
+from .distance import ProgressCallback
 from .exceptions import ParameterError, TooExpensiveError
 
 __all__ = [
@@ -157,7 +157,7 @@ def _count(code: Code, progress: ProgressCallback | None) -> list[int]:
     GIL); the histogram is a sum, so the result does not depend on the order.
     """
     rows = np.array(code.packed_generator, dtype=np.uint64, order="C")
-    OT, TT, _ = _gray_layout(rows)
+    OT, TT, _ = _kernels.gray_layout(rows)
     outer = 1 << OT.shape[1]
     per = max(1, (1 << 24) // TT.shape[1])
     blocks = [(g, min(outer, g + per)) for g in range(0, outer, per)]

@@ -36,16 +36,15 @@ from pathlib import Path
 import numpy as np
 
 from gf2codes import _kernels, families
+from gf2codes._kernels import gray_layout as _gray_layout
 from gf2codes.code import Code
-from gf2codes.distance import (
-    _Best,
-    _Clock,
-    _InfoSetMatrix,
-    _level_tasks,
-    _run_task,
-    _Shared,
-    minimum_distance,
-)
+from gf2codes.distance import minimum_distance
+from gf2codes.distance._bz import InfoSetMatrix as _InfoSetMatrix
+from gf2codes.distance._bz import Shared as _Shared
+from gf2codes.distance._bz import level_tasks as _level_tasks
+from gf2codes.distance._bz import run_task as _run_task
+from gf2codes.distance._result import Best as _Best
+from gf2codes.distance._result import ProofClock as _Clock
 
 
 def naive_rate(code: Code, k_used: int = 18) -> float:
@@ -61,8 +60,6 @@ def naive_rate(code: Code, k_used: int = 18) -> float:
 
 def gray_rate(code: Code) -> float:
     """Codewords per second of Gray-code enumeration over all 2^k codewords (no early exit)."""
-    from gf2codes.distance import _gray_layout
-
     rows = np.array(code.packed_generator, dtype=np.uint64, order="C")
     OT, TT, _ = _gray_layout(rows)
     _kernels.gray_min_weight(OT, TT, 0, 2, -1)

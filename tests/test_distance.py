@@ -104,7 +104,9 @@ def test_gray_engine_stopping_early_never_claims_completeness(seed):
     # Regression test: a target run that stops at the first light codeword inside the
     # last block must not report the whole code as enumerated (that would turn the
     # weight of an arbitrary light codeword into a "proved" d).
-    from gf2codes.distance import _Best, _Clock, _gray_search
+    from gf2codes.distance._gray import gray_search as _gray_search
+    from gf2codes.distance._result import Best as _Best
+    from gf2codes.distance._result import ProofClock as _Clock
 
     C = _random_code(seed)
     d = brute_distance(C.G)

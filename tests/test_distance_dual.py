@@ -11,10 +11,10 @@ import pytest
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
-from gf2codes import _dual_kernels, distance, families
+from gf2codes import _dual_kernels, families
 from gf2codes._reference import brute_distance
 from gf2codes.code import Code
-from gf2codes.distance import minimum_distance, route_estimates
+from gf2codes.distance import _dual, minimum_distance, route_estimates
 from gf2codes.exceptions import ParameterError
 
 from helpers import random_code_matrix
@@ -80,7 +80,7 @@ def test_dual_route_target_test(seed, target):
 
 def test_dual_route_with_buckets(monkeypatch):
     """A bitmap smaller than 2^(n-k) bits: the syndromes go in buckets of top bits."""
-    monkeypatch.setattr(distance, "_BITMAP_BITS", 3)
+    monkeypatch.setattr(_dual, "_BITMAP_BITS", 3)
     rng = np.random.default_rng(11)
     for _ in range(20):
         n = int(rng.integers(12, 30))

@@ -34,7 +34,7 @@ def test_rref_twin_equals_kernel(seed, rows, n):
 
 
 def _gray_inputs(seed: int, k: int, n: int):
-    from gf2codes.distance import _gray_layout
+    from gf2codes._kernels import gray_layout as _gray_layout
 
     rng = np.random.default_rng(seed)
     rows = _packed(rng, k, n)

@@ -11,9 +11,9 @@ import time
 import numpy as np
 import pytest
 
-from gf2codes import distance, families
+from gf2codes import families
 from gf2codes.code import Code
-from gf2codes.distance import minimum_distance
+from gf2codes.distance import _bz, minimum_distance
 from gf2codes.exceptions import ParameterError
 from gf2codes.parallel import DaskCluster, InProcess, ProcessPool, make_executor
 
@@ -23,7 +23,7 @@ REMOTE = 10**6
 
 @pytest.fixture
 def remote_levels(monkeypatch):
-    monkeypatch.setattr(distance, "_REMOTE_MIN_WORK", REMOTE)
+    monkeypatch.setattr(_bz, "_REMOTE_MIN_WORK", REMOTE)
 
 
 def _square(x: int) -> int:
