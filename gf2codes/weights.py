@@ -26,11 +26,11 @@ import os
 from collections import deque
 from collections.abc import Sequence
 from concurrent.futures import Future, ThreadPoolExecutor
-from functools import lru_cache
 
 import numpy as np
 
 from . import _kernels
+from ._util import memo, past
 from .code import Code
 from .distance import ProgressCallback
 from .exceptions import ParameterError, TooExpensiveError
@@ -52,7 +52,7 @@ __all__ = [
 DEFAULT_MAX_ENUMERATION = 1 << 36
 
 
-@lru_cache(maxsize=65536)
+@memo(65536)
 def krawtchouk(j: int, i: int, n: int) -> int:
     """The binary Krawtchouk polynomial ``K_j(i)`` of length ``n`` (exact integer).
 
@@ -86,13 +86,11 @@ def krawtchouk_column(i: int, n: int, stop: int | None = None) -> list[int]:
 def _transform_sums(A: Sequence[int], n: int, stop: int,
                     deadline: float | None = None) -> list[int]:
     """``sum_i A_i K_j(i)`` for ``j = 0..stop``, one recurrence per nonzero ``A_i``."""
-    import time
-
     sums = [0] * (stop + 1)
     for i, a in enumerate(A):
         if not a:
             continue
-        if deadline is not None and time.monotonic() > deadline:
+        if past(deadline):
             raise TimeoutError("the MacWilliams transform did not finish in time")
         for j, kj in enumerate(krawtchouk_column(i, n, stop)):
             sums[j] += a * kj
@@ -208,7 +206,8 @@ def weight_distribution(code: Code, *, progress: ProgressCallback | None = None,
     Enumerates the code when ``k <= n - k``, else the dual code followed by the
     MacWilliams transform.
 
-    ``deadline`` (a :func:`time.monotonic` value) bounds the MacWilliams step;
+    ``deadline`` (a :func:`time.perf_counter` value, as made by
+    :func:`gf2codes._util.deadline_after`) bounds the MacWilliams step;
     a ``progress`` callback may stop the enumeration by raising.
 
     Raises
@@ -248,19 +247,17 @@ def dual_distance_from_distribution(distribution: Sequence[int], *,
     """Least ``j > 0`` with ``B_j != 0`` in the MacWilliams transform of ``distribution``.
 
     Only the transform's first entries are computed: the recurrences stop at the
-    first nonzero ``B_j`` (``deadline``, a :func:`time.monotonic` value, stops the
+    first nonzero ``B_j`` (``deadline``, a :func:`time.perf_counter` value, stops the
     work with :class:`TimeoutError`). None when the dual is the zero code.
 
     >>> dual_distance_from_distribution([1, 0, 0, 7, 7, 0, 0, 1])  # Hamming [7,4]
     4
     """
-    import time
-
     A = [int(a) for a in distribution]
     n = len(A) - 1
     columns = {i: [1, n - 2 * i] for i, a in enumerate(A) if a}  # K_0, K_1 at each i
     for j in range(1, n + 1):
-        if deadline is not None and time.monotonic() > deadline:
+        if past(deadline):
             raise TimeoutError("the dual distance did not finish in time")
         if j >= 2:
             for i, col in columns.items():
