@@ -118,6 +118,14 @@ class Kernel:
         return d
 
     @property
+    def targetoptions(self) -> dict[str, Any]:
+        """The options as numba reads them from a dispatcher: a kernel declared with
+        ``inline="always"`` is inlined into the numba IR of every kernel that calls it
+        (numba looks for ``targetoptions`` on the global it calls), so its loop and its
+        array arguments cost no call."""
+        return self.options
+
+    @property
     def compiled(self) -> bool:
         """Whether this kernel has been compiled or loaded in this process."""
         return self._dispatcher is not None
@@ -150,6 +158,9 @@ def _bind_intrinsics(func: Callable[..., Any]) -> None:
         value = namespace.get(name)
         if isinstance(value, LazyIntrinsic):
             namespace[name] = value.resolve()
+        elif (isinstance(value, Kernel) and value.options.get("inline") == "always"
+              and value.py_func is not func):
+            _bind_intrinsics(value.py_func)  # its body is inlined: its names are read too
 
 
 def kernel(signature: str | None = None, **options: Any) -> Callable[[Callable[..., Any]], Kernel]:

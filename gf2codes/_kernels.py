@@ -33,6 +33,7 @@ __all__ = [
     "gray_layout",
     "gray_min_weight",
     "gray_weight_histogram",
+    "next_combination",
     "combination_min_weight",
     "combination_table_min_weight",
     "subset_sums",
@@ -126,6 +127,34 @@ def rref_inplace(M, order):  # pragma: no cover - compiled
         pivots[rank] = col
         rank += 1
     return pivots[:rank].copy()
+
+
+@kernel(inline="always")
+def next_combination(c, first, p, m):  # pragma: no cover - compiled
+    """Advance ``c[:p]``, a ``p``-subset of ``{0, ..., m - 1}`` in increasing order, to the
+    next one in lexicographic order, leaving ``c[:first]`` as it is.
+
+    Bumps the last entry that can still grow and resets the tail after it to
+    consecutive values; returns that entry's position (the entries from there on
+    changed, so partial sums from there on need recomputing), or -1 when ``c[first:p]``
+    was the last subset. The one copy of this step, inlined into every enumeration
+    kernel (:mod:`gf2codes._kernels`, :mod:`gf2codes._dual_kernels`).
+
+    >>> import numpy as np
+    >>> c = np.array([0, 3, 4]); next_combination.py_func(c, 0, 3, 5), c.tolist()
+    (0, [1, 2, 3])
+    >>> next_combination.py_func(np.array([2, 3, 4]), 0, 3, 5)
+    -1
+    """
+    i = p - 1
+    while i >= first and c[i] == m - p + i:
+        i -= 1
+    if i < first:
+        return -1
+    c[i] += 1
+    for j in range(i + 1, p):
+        c[j] = c[j - 1] + 1
+    return i
 
 
 @kernel(inline="always")
@@ -326,15 +355,11 @@ def combination_min_weight(GT, w, state, budget, stop_at, best_combo, base):  # 
             for l in range(p):
                 best_combo[l] = state[l]
             best_combo[p] = i
-        # advance the prefix (also when stopping, so a resumed call does not repeat it)
-        i = p - 1
-        while i >= 0 and state[i] == k - w + i:
-            i -= 1
+        # advance the prefix (also when stopping, so a resumed call does not repeat it):
+        # a (w - 1)-subset of the first k - 1 rows
+        i = next_combination(state, 0, p, k - 1)
         if i < 0:
             return visited, np.int64(best), True
-        state[i] += 1
-        for j in range(i + 1, p):
-            state[j] = state[j - 1] + 1
         for l in range(i, p):
             for q in range(W):
                 part[l + 1, q] = part[l, q] ^ GT[q, state[l]]
@@ -387,14 +412,9 @@ def combination_table_min_weight(AT, w1, state, TT, budget, stop_at, best_combo,
             best_t = _scan_find(s, TT, 0, L, W, m)
             for l in range(w1):
                 best_combo[l] = state[l]
-        i = w1 - 1
-        while i >= 0 and state[i] == a - w1 + i:
-            i -= 1
+        i = next_combination(state, 0, w1, a)
         if i < 0:
             return visited, np.int64(best), best_t, True
-        state[i] += 1
-        for j in range(i + 1, w1):
-            state[j] = state[j - 1] + 1
         for l in range(i, w1):
             for q in range(W):
                 part[l + 1, q] = part[l, q] ^ AT[q, state[l]]
@@ -430,14 +450,9 @@ def subset_sums(rows, w):  # pragma: no cover - compiled
         for l in range(w):
             subsets[t, l] = c[l]
         t += 1
-        i = w - 1
-        while i >= 0 and c[i] == b - w + i:
-            i -= 1
+        i = next_combination(c, 0, w, b)
         if i < 0:
             break
-        c[i] += 1
-        for j in range(i + 1, w):
-            c[j] = c[j - 1] + 1
         for l in range(i, w):
             for q in range(W):
                 part[l + 1, q] = part[l, q] ^ rows[c[l], q]

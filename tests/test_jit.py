@@ -112,3 +112,26 @@ def test_the_twin_passes_a_large_call_to_the_kernel():
 
     triple.small = lambda x: None  # "too large for me"
     assert triple(5) == 15 and triple.compiled
+
+
+@given(st.integers(1, 9), st.data())
+def test_next_combination_walks_every_subset_in_lexicographic_order(m, data):
+    # The one copy of the combination step (inlined into the enumeration kernels),
+    # compiled and as plain Python, against itertools.combinations (computed here).
+    import itertools
+
+    from gf2codes._kernels import next_combination
+
+    p = data.draw(st.integers(1, m))
+    first = data.draw(st.integers(0, p - 1))
+    head = sorted(data.draw(st.sets(st.integers(0, m - p + first - 1), min_size=first,
+                                    max_size=first))) if first else []
+    lo = head[-1] + 1 if head else 0
+    expected = [head + list(t) for t in itertools.combinations(range(lo, m), p - first)]
+    for step in (next_combination, next_combination.py_func):
+        c = np.array(expected[0], dtype=np.int64)
+        seen = [c.tolist()]
+        while (i := step(c, first, p, m)) >= 0:
+            assert c[:i].tolist() == seen[-1][:i]  # entries before the one returned stay
+            seen.append(c.tolist())
+        assert seen == expected
