@@ -342,9 +342,8 @@ def test_search_closes_the_question_by_exhaustive_search(monkeypatch):
     # memory; [12,5,5] non-existence is also checked against brute force-free plain
     # backtracking in test_existence.py).
     from gf2codes import bounds
-    from gf2codes.search import _driver
 
-    monkeypatch.setattr(_driver.bounds, "least_length",
+    monkeypatch.setattr(bounds, "least_length",
                         lambda k, d: bounds.LengthBound(9, "singleton"))
     r = S.search_length(5, 5, time_limit=60, seed=0)
     assert r.n == 13 and r.optimal and r.stopped == "bound attained"
@@ -357,9 +356,8 @@ def test_search_takes_an_exhaustive_witness(monkeypatch):
     # Distance mode at [16,8]: with a weak bound the exhaustive decision finds a [16,8,5]
     # code (a witness, checked by brute force) and proves [16,8,6] impossible.
     from gf2codes import bounds
-    from gf2codes.search import _driver
 
-    monkeypatch.setattr(_driver.bounds, "best_upper",
+    monkeypatch.setattr(bounds, "best_upper",
                         lambda n, k: bounds.UpperBound(9, "singleton"))
     r = S.search_distance(16, 8, time_limit=60, seed=0, strategies=["random"])
     assert r.d == 5 and r.optimal and r.bound == 5
