@@ -12,11 +12,11 @@ running finish their own limits.
 from __future__ import annotations
 
 import dataclasses
-import time
 from collections.abc import Sequence
 
 import numpy as np
 
+from .._util import Clock
 from ..code import Code
 from ..questions import SearchQuestion
 from ._driver import SearchResult, check_limits, run_search
@@ -40,7 +40,7 @@ def run_portfolio_parallel(question: SearchQuestion, *, strategy_names: Sequence
                            seed: int, start: Sequence[Code] = ()) -> SearchResult:
     """Run every strategy as a task on ``executor`` and merge (see the module docstring)."""
     check_limits(time_limit, max_steps, seed)
-    t0 = time.perf_counter()
+    clock = Clock(None)
     packed = [(np.ascontiguousarray(c.packed_generator).tobytes(), c.n, c.k) for c in start]
     payloads = [(question, name, time_limit, max_steps, int(seed), packed)
                 for name in strategy_names]
@@ -59,7 +59,7 @@ def run_portfolio_parallel(question: SearchQuestion, *, strategy_names: Sequence
     stats = {}
     for i in sorted(results):
         stats.update(results[i].stats)
-    return dataclasses.replace(best, seconds=time.perf_counter() - t0,
+    return dataclasses.replace(best, seconds=clock.elapsed(),
                                candidates=sum(r.candidates for r in results.values()),
                                stats=stats)
 
