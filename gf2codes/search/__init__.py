@@ -21,6 +21,14 @@ Examples
 >>> r = search_length(4, 3, time_limit=10, seed=1)
 >>> (r.n, r.k, r.d, r.optimal)
 (7, 4, 3, True)
+
+The same through the question object (:mod:`gf2codes.questions`), as the command line
+does it:
+
+>>> from gf2codes.questions import question
+>>> r = search_for(question(n=16, k=5), time_limit=10, seed=1)
+>>> (r.n, r.k, r.d, r.optimal, r.statement())
+(16, 5, 8, True, '[16,5,8] has the greatest possible distance (griesmer).')
 """
 
 from __future__ import annotations
