@@ -179,8 +179,6 @@ class SearchResult:
         return out
 
 
-
-
 # ----------------------------------------------------------------------------- limits
 def check_limits(time_limit: object, max_steps: object, seed: object = 0) -> None:
     """Check a search's limits and seed; raise :class:`ParameterError`.
