@@ -143,6 +143,7 @@ from . import linalg
 from ._version import __version__
 from .code import Code
 from .exceptions import CatalogError, ParameterError, ParseError, check_int
+from .questions import question_type
 
 __all__ = [
     "SCHEMA_VERSION",
@@ -1497,16 +1498,13 @@ class Catalog:
         derived answer inherits its base entry's). Returns None when the catalog has
         nothing that qualifies.
         """
-        given = {key for key, v in (("n", n), ("k", k), ("d", d)) if v is not None}
-        if len(given) != 2:
-            raise ParameterError("Give exactly two of 'n', 'k' and 'd', not "
-                                 f"{', '.join(sorted(given)) or 'none'}.")
+        asked = question_type(n, k, d)  # exactly two given, or ParameterError
         ids, N0, K0, L0, U0, P0 = self._load_arrays()
         if not claims:
             ids, N0, K0, L0, U0, P0 = (a[P0] for a in (ids, N0, K0, L0, U0, P0))
         if ids.size == 0:
             return None
-        if n is None:
+        if asked.mode == "length":
             k = check_int("k", k, minimum=1)
             d = check_int("d", d, minimum=1)
             lengths = _reach_n(N0, K0, L0, k, d)
@@ -1514,7 +1512,7 @@ class Catalog:
             if n_best == np.iinfo(np.int64).max:
                 return None
             n = n_best
-        elif k is None:
+        elif asked.mode == "dimension":
             n = check_int("n", n, minimum=1)
             d = check_int("d", d, minimum=1)
             dims = _reach_k(N0, K0, L0, n, d)

@@ -30,10 +30,11 @@ QUESTIONS: tuple[Question, ...] = get_args(Question)
 DistanceMethod = Literal["auto", "gray", "brouwer-zimmermann", "dual-columns"]
 DISTANCE_METHODS: tuple[DistanceMethod, ...] = get_args(DistanceMethod)
 
-#: Why a long computation ended before it finished (``None`` where it finished).
+#: Why a long computation ended before it finished (``None`` where it finished;
+#: ``exhausted``: a search whose every strategy had nothing more to offer).
 StopReason = Literal["time limit", "interrupted", "node budget", "step limit", "cell limit",
                      "upper bound only", "propagation", "target met", "bound attained",
-                     "below target", "finished", "stopped", "undecided"]
+                     "below target", "finished", "stopped", "undecided", "exhausted"]
 
 #: How far a catalog entry is trusted: proved here, checked (re-proved from a record),
 #: or only claimed by its source.

@@ -20,6 +20,7 @@ from rich.table import Table
 
 from .. import bounds as B
 from ..exceptions import ParameterError
+from ..questions import question_type
 from ._common import add_json_flag, console, parse_int, parse_range, print_json
 from ._text import length_grid
 
@@ -77,12 +78,11 @@ def run(args) -> int:
     if given == {"n", "k", "d"}:
         return _run_nkd(parse_int("n", args.n), parse_int("k", args.k), parse_int("d", args.d),
                         args)
-    if given == {"n", "k"}:
-        return _run_nk(parse_int("n", args.n), parse_int("k", args.k), args.json)
-    if given == {"n", "d"}:
-        return _run_nd(parse_int("n", args.n), parse_int("d", args.d), args.json)
-    if given == {"k", "d"}:
-        return _run_kd(parse_int("k", args.k), parse_int("d", args.d), args.json)
+    if len(given) == 2:
+        asked = question_type(args.n, args.k, args.d, options=True)
+        runner = {"distance": _run_nk, "dimension": _run_nd, "length": _run_kd}[asked.mode]
+        first, second = (parse_int(name, getattr(args, name)) for name in asked.given_names)
+        return runner(first, second, args.json)
     raise ParameterError(
         "Arguments must be two or three of --n, --k, --d (or --table), not "
         + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."

@@ -24,7 +24,7 @@ from rich.table import Table
 from .. import formats
 from .. import search as S
 from ..exceptions import Gf2CodesError, ParameterError, check_int
-from ..search._driver import validate
+from ..questions import question_type
 from ._common import (
     MAX_SECONDS,
     MAX_SEED,
@@ -97,9 +97,8 @@ def _open_catalog(args):
 
 
 def run(args) -> int:
-    given = {name for name in ("n", "k", "d") if getattr(args, name) is not None}
     time_limit = parse_float("time_limit", args.time_limit)
-    if time_limit > MAX_SECONDS:  # (not positive: refused by validate() below)
+    if time_limit > MAX_SECONDS:  # (not positive: refused by check_limits() below)
         raise ParameterError(f"Argument 'time_limit' must be at most {MAX_SECONDS:.0e} "
                              f"seconds, not {time_limit:g}.")
     seed = check_int("seed", parse_int("seed", args.seed), minimum=0, maximum=MAX_SEED)
@@ -107,28 +106,18 @@ def run(args) -> int:
     max_steps = None if args.max_steps is None else parse_int("max_steps",
                                                               args.max_steps)
     strategies = S.resolve_strategies(args.strategy)
-    if given == {"k", "d"}:
-        mode, kw = "length", {"k": parse_int("k", args.k), "d": parse_int("d", args.d)}
-    elif given == {"n", "k"}:
-        mode, kw = "distance", {"n": parse_int("n", args.n), "k": parse_int("k", args.k)}
-    elif given == {"n", "d"}:
-        mode, kw = "dimension", {"n": parse_int("n", args.n), "d": parse_int("d", args.d)}
-    else:
-        raise ParameterError(
-            "Arguments must be exactly two of --n, --k, --d, not "
-            + (", ".join(f"--{g}" for g in sorted(given)) or "none") + "."
-        )
-    func = {"length": S.search_length, "distance": S.search_distance,
-            "dimension": S.search_dimension}[mode]
+    asked = question_type(args.n, args.k, args.d, options=True)
+    kw = {name: parse_int(name, getattr(args, name)) for name in asked.given_names}
     # validate before touching the catalog
-    validate(mode, kw.get("n"), kw.get("k"), kw.get("d"), time_limit, max_steps)
+    S.check_limits(time_limit, max_steps, seed)
+    question = asked.from_values(kw)
 
     cat = _open_catalog(args)
     start = []
     interrupted = False
     try:
         if cat is not None:
-            entry = cat.pick(**kw)
+            entry = cat.pick(**question.fixed)
             if entry is not None:
                 start.append(entry.code)
 
@@ -146,13 +135,13 @@ def run(args) -> int:
                         proof={"method": f"search winner ({info.get('strategy')}), d proved "
                                          "by minimum_distance"})
 
-        label = "search " + " ".join(f"{key}={val}" for key, val in kw.items())
+        label = "search " + " ".join(f"{key}={val}" for key, val in question.fixed.items())
         executor = executor_from_args(args)
         try:
             with ProgressBar(label, delay=1.0) as bar:
-                result = func(*kw.values(), time_limit=time_limit, max_steps=max_steps,
-                              seed=seed, strategies=strategies, start=start, progress=bar,
-                              on_winner=save, executor=executor)
+                result = S.search_for(question, time_limit=time_limit, max_steps=max_steps,
+                                      seed=seed, strategies=strategies, start=start,
+                                      progress=bar, on_winner=save, executor=executor)
         finally:
             if executor is not None:
                 executor.close()
@@ -179,8 +168,8 @@ def run(args) -> int:
     return 0
 
 
-def _print(r) -> None:
-    q, flag, bound_key = S.MODES[r.mode]
+def _print(r: S.SearchResult) -> None:
+    flag, bound_key = r.question.flag_key, r.question.bound_key
     d_text = str(r.d) if r.d is not None else f">= {r.d_lower} (exact value not proved)"
     t = Table(show_header=False, box=None)
     t.add_row("code", f"[{r.n}, {r.k}, {r.d if r.d is not None else r.d_lower}]")

@@ -21,6 +21,14 @@ Examples
 >>> r = search_length(4, 3, time_limit=10, seed=1)
 >>> (r.n, r.k, r.d, r.optimal)
 (7, 4, 3, True)
+
+The same through the question object (:mod:`gf2codes.questions`), as the command line
+does it:
+
+>>> from gf2codes.questions import question
+>>> r = search_for(question(n=16, k=5), time_limit=10, seed=1)
+>>> (r.n, r.k, r.d, r.optimal, r.statement())
+(16, 5, 8, True, '[16,5,8] has the greatest possible distance (griesmer).')
 """
 
 from __future__ import annotations
@@ -29,11 +37,12 @@ from collections.abc import Iterable, Sequence
 
 from ..code import Code
 from ..exceptions import ParameterError, check_int
+from ..questions import GreatestDimension, GreatestDistance, SearchQuestion, ShortestLength
 from ._anneal import Annealing
 from ._base import Strategy, screen, target_test
 from ._circulant import Circulant
 from ._cyclic import Cyclic
-from ._driver import MODES, OnWinner, Progress, SearchResult, run_search, validate
+from ._driver import MODES, OnWinner, Progress, SearchResult, WinnerInfo, check_limits, run_search
 from ._families import FamilyDerivation
 from ._greedy import ColumnGreedy
 from ._lexicode import Lexicode
@@ -46,6 +55,9 @@ __all__ = [
     "search_length",
     "search_distance",
     "search_dimension",
+    "search_for",
+    "check_limits",
+    "WinnerInfo",
     "resolve_strategies",
     "screen",
     "target_test",
@@ -129,13 +141,13 @@ _DOC_COMMON = """
     Raises
     ------
     ParameterError
-        For parameters out of range, a time limit <= 0, an unknown strategy.
+        For parameters out of range, a time limit <= 0, a negative seed, an unknown
+        strategy.
 """
 
 
-def _run(mode: str, n, k, d, time_limit, max_steps, seed, strategies, start, progress,
+def _run(question: SearchQuestion, time_limit, max_steps, seed, strategies, start, progress,
          on_winner, executor=None, exhaustive_nodes: int = 200_000) -> SearchResult:
-    n, k, d = validate(mode, n, k, d, time_limit, max_steps)
     chosen = resolve_strategies(strategies)
     start = [c for c in start if isinstance(c, Code)]
     if executor is not None:
@@ -145,18 +157,40 @@ def _run(mode: str, n, k, d, time_limit, max_steps, seed, strategies, start, pro
         if unknown:
             raise ParameterError("Argument 'executor' needs the strategies of the portfolio "
                                  f"(by name), not a custom {unknown[0].name!r}.")
-        result = run_portfolio_parallel(mode, n=n, k=k, d=d,
-                                        strategy_names=[s.name for s in chosen],
+        result = run_portfolio_parallel(question, strategy_names=[s.name for s in chosen],
                                         executor=executor, time_limit=time_limit,
                                         max_steps=max_steps, seed=seed, start=start)
         if on_winner is not None and result.d is not None:
-            on_winner(result.code, result.d, {"exact": True, "seed": result.seed,
-                                              "strategy": result.strategy})
+            on_winner(result.code, result.d, {"strategy": result.strategy,
+                                              "seed": result.seed, "exact": True,
+                                              "mode": question.mode})
         return result
-    return run_search(mode, n=n, k=k, d=d, strategies=chosen, time_limit=time_limit,
+    return run_search(question, strategies=chosen, time_limit=time_limit,
                       max_steps=max_steps, seed=seed, start=start,
                       progress=progress, on_winner=on_winner,
                       exhaustive_nodes=check_int("exhaustive_nodes", exhaustive_nodes, minimum=0))
+
+
+def search_for(question: SearchQuestion, *, time_limit: float | None = 60.0,
+               max_steps: int | None = None, seed: int = 0,
+               strategies: Iterable[str | Strategy] | None = None,
+               start: Sequence[Code] = (), progress: Progress | None = None,
+               on_winner: OnWinner | None = None, executor=None,
+               exhaustive_nodes: int = 200_000) -> SearchResult:
+    """The best code found for ``question`` (from :func:`gf2codes.questions.question`).
+
+    :func:`search_length`, :func:`search_distance` and :func:`search_dimension` are this
+    with the question made from their two values.
+
+    Parameters
+    ----------
+    question : gf2codes.questions.SearchQuestion
+        The shortest length, greatest distance or greatest dimension, with its two
+        given values.
+    """
+    check_limits(time_limit, max_steps, seed)
+    return _run(question, time_limit, max_steps, seed, strategies, start, progress,
+                on_winner, executor, exhaustive_nodes)
 
 
 def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
@@ -175,7 +209,8 @@ def search_length(k: int, d: int, *, time_limit: float | None = 60.0,
     k, d : int
         Dimension and required distance, both at least 1.
     """
-    return _run("length", None, k, d, time_limit, max_steps, seed, strategies, start,
+    check_limits(time_limit, max_steps, seed)
+    return _run(ShortestLength(k, d), time_limit, max_steps, seed, strategies, start,
                 progress, on_winner, executor, exhaustive_nodes)
 
 
@@ -194,7 +229,8 @@ def search_distance(n: int, k: int, *, time_limit: float | None = 60.0,
     n, k : int
         Length and dimension, ``1 <= k <= n``.
     """
-    return _run("distance", n, k, None, time_limit, max_steps, seed, strategies, start,
+    check_limits(time_limit, max_steps, seed)
+    return _run(GreatestDistance(n, k), time_limit, max_steps, seed, strategies, start,
                 progress, on_winner, executor, exhaustive_nodes)
 
 
@@ -213,11 +249,12 @@ def search_dimension(n: int, d: int, *, time_limit: float | None = 60.0,
     n, d : int
         Length and required distance, ``1 <= d <= n``.
     """
-    return _run("dimension", n, None, d, time_limit, max_steps, seed, strategies, start,
+    check_limits(time_limit, max_steps, seed)
+    return _run(GreatestDimension(n, d), time_limit, max_steps, seed, strategies, start,
                 progress, on_winner, executor, exhaustive_nodes)
 
 
-for _f in (search_length, search_distance, search_dimension):
+for _f in (search_for, search_length, search_distance, search_dimension):
     assert _f.__doc__ is not None
     _f.__doc__ = _f.__doc__.rstrip() + "\n" + _DOC_COMMON
 del _f

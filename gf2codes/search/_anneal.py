@@ -30,7 +30,7 @@ import numpy as np
 from .. import linalg
 from ..code import Code
 from . import _kernels
-from ._base import Strategy
+from ._base import Strategy, light_budget
 from ._random import random_redundancy
 
 __all__ = ["Annealing", "objective_depth"]
@@ -62,7 +62,7 @@ class Annealing(Strategy):
         if r < 1 or r < D - 1 or D < 2:
             return
         t = objective_depth(k, D)
-        per_eval = max(1, sum(math.comb(k, i) for i in range(1, t + 1)))
+        per_eval = max(1, light_budget(k, t + 1))
         iters = max(1, _STEP_WORK // per_eval)
         eye = np.eye(k, dtype=np.uint8)
         while True:

@@ -25,7 +25,7 @@ from collections.abc import Iterator
 
 import numpy as np
 
-from .. import linalg
+from .. import derive, families, linalg
 from ..code import Code
 from ..distance import minimum_distance
 from . import _kernels
@@ -33,6 +33,10 @@ from . import _kernels
 __all__ = [
     "Strategy",
     "code_from_columns",
+    "repetition_blocks",
+    "pad_to",
+    "shorten_to",
+    "subcode",
     "systematic_code",
     "echelon_rows",
     "light_budget",
@@ -58,11 +62,16 @@ class Strategy:
     exhaustible : bool
         True when the strategy proposes a finite list for each target (so that the
         driver may conclude it has nothing more to offer).
+    warm : bool
+        True when the strategy proposes a few deterministic candidates per target,
+        cheaply: the driver's warm start tries it at every value from the bound towards
+        the incumbent before the portfolio starts (implies ``exhaustible``).
     """
 
     name: str = ""
     summary: str = ""
     exhaustible: bool = False
+    warm: bool = False
 
     def candidates(self, n: int, k: int, D: int,
                    rng: np.random.Generator) -> Iterator[Code | None]:
@@ -79,6 +88,40 @@ def code_from_columns(cols: np.ndarray, r: int, *, name: str | None = None) -> C
     cols = np.asarray(cols, dtype=np.uint64)
     H = ((cols[None, :] >> np.arange(r, dtype=np.uint64)[:, None]) & np.uint64(1))
     return Code.from_parity_check(H.astype(np.uint8), name=name)
+
+
+def repetition_blocks(n: int, k: int) -> Code:
+    """``k`` disjoint repetition blocks covering ``n`` coordinates: ``d = floor(n / k)``."""
+    G = np.zeros((k, n), dtype=np.uint8)
+    sizes = [n // k + (1 if i < n % k else 0) for i in range(k)]
+    start = 0
+    for i, s in enumerate(sizes):
+        G[i, start:start + s] = 1
+        start += s
+    return families.from_rows(G).with_info(name=f"repetition blocks [{n},{k}]")
+
+
+def pad_to(code: Code, n: int) -> Code:
+    """Append ``n - code.n`` zero coordinates (length fixed, distance unchanged)."""
+    G = np.hstack([code.G, np.zeros((code.k, n - code.n), dtype=np.uint8)])
+    return families.from_rows(G).with_info(name=code.name)
+
+
+def shorten_to(code: Code, k: int) -> Code:
+    """Shorten on ``code.k - k`` information-set coordinates (:attr:`Code.pivots`):
+    ``[n - (k' - k), k]``, distance kept."""
+    extra = code.k - k
+    if extra <= 0:
+        return code
+    return derive.shorten(code, list(code.pivots[:extra]))
+
+
+def subcode(code: Code, k: int) -> Code:
+    """The first ``k`` rows of the reduced echelon generator (distance can only grow)."""
+    if code.k <= k:
+        return code
+    sub = families.from_rows(code.rref_generator[:k])
+    return sub.with_info(name=code.name)
 
 
 def systematic_code(A: np.ndarray, *, name: str | None = None) -> Code:

@@ -40,10 +40,6 @@ def circulant_redundancy(first_rows: np.ndarray, r: int) -> np.ndarray:
     return np.hstack(blocks)[:, :r]
 
 
-def _bits(v: np.ndarray) -> str:
-    return "".join("1" if b else "0" for b in v.tolist())
-
-
 class Circulant(Strategy):
     """Random and hill-climbed circulant redundancy blocks (see the module docstring)."""
 
@@ -55,8 +51,9 @@ class Circulant(Strategy):
             eye = np.zeros(k, dtype=np.uint8)
             eye[0] = 1
             if r == k:
-                return families.double_circulant(_bits(a[0]))
-            return families.quasi_cyclic(["".join([_bits(eye)] + [_bits(x) for x in a])], k)
+                return families.double_circulant(linalg.bit_string(a[0]))
+            return families.quasi_cyclic(
+                ["".join([linalg.bit_string(eye)] + [linalg.bit_string(x) for x in a])], k)
         A = circulant_redundancy(a, r)
         return families.from_rows(np.hstack([np.eye(k, dtype=np.uint8), A]))
 

@@ -1,14 +1,16 @@
 """The search driver: a portfolio of strategies under a time limit.
 
 The three questions (least ``n`` for ``(k, d)``, greatest ``d`` for ``(n, k)``,
-greatest ``k`` for ``(n, d)``) are one problem seen three ways: find a binary
-linear ``[n, k, >= D]`` code for a sequence of ever better targets. The driver
+greatest ``k`` for ``(n, d)``; one object each, :mod:`gf2codes.questions`) are one
+problem seen three ways: find a binary linear ``[n, k, >= D]`` code for a sequence of
+ever better targets. The driver (:class:`Driver`, one method per step)
 
 1. takes the bound (least length, or greatest distance or dimension, that the upper
    bounds of :mod:`gf2codes.bounds` allow) and an incumbent: the best of the
    starting codes, of a trivial code that always exists (disjoint repetition
-   blocks), and of a *warm start* — the deterministic, exhaustible strategies
-   (``families``, ``lexicode``) tried from the bound towards the incumbent;
+   blocks), and of a *warm start* — the strategies that declare themselves
+   ``warm`` (cheap, deterministic, finite: ``families``, ``lexicode``) tried from the
+   bound towards the incumbent;
 2. then works on the target one step better than the incumbent with the whole
    portfolio: each step of the schedule gives one unit of work (one ``next()``) to
    the strategy with the fewest units relative to its credit, where credit grows
@@ -28,34 +30,45 @@ strategy work) instead of a time limit, the same seed gives the same result.
 
 from __future__ import annotations
 
-import time
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass, field
-from typing import Any
+from typing import Any, TypedDict
 
 import numpy as np
 
-from .. import bounds, derive, families, formats
+from .. import families, formats
+from .._util import Clock
 from ..code import Code
 from ..distance import minimum_distance
 from ..exceptions import ParameterError, check_int
-from ._base import Strategy, target_test
+from ..questions import QUESTION_TYPES, SearchQuestion
+from ..typing import Question, StopReason
+from ._base import Strategy, pad_to, repetition_blocks, shorten_to, subcode, target_test
 
-__all__ = ["SearchResult", "run_search", "MODES"]
+__all__ = ["SearchResult", "Driver", "run_search", "check_limits", "MODES", "WinnerInfo"]
 
 #: mode -> (quantity optimised, JSON key of the optimality flag, JSON key of the bound)
-MODES = {
-    "length": ("n", "proven_shortest", "n_lower_bound"),
-    "distance": ("d", "proven_optimal", "d_upper_bound"),
-    "dimension": ("k", "proven_optimal", "k_upper_bound"),
+MODES: dict[Question, tuple[str, str, str]] = {
+    mode: (cls.quantity, cls.flag_key, cls.bound_key) for mode, cls in QUESTION_TYPES.items()
 }
+
+
+class WinnerInfo(TypedDict):
+    """What ``on_winner`` is told about the winner beside the code and its distance."""
+
+    strategy: str
+    seed: int
+    #: True when the distance given is the exact minimum distance (False: a lower bound).
+    exact: bool
+    mode: Question
+
 
 #: ``progress(done, total, info)`` with ``done`` and ``total`` in milliseconds and
 #: ``info["note"]`` a one-line status (target, best, candidates per second).
 Progress = Callable[[int, int, dict], None]
 
 #: ``on_winner(code, d, info)``: called with every new proved best code.
-OnWinner = Callable[[Code, int, dict], None]
+OnWinner = Callable[[Code, int, WinnerInfo], None]
 
 _WARM_VALUES = 48  # values of the optimised quantity tried by the warm start
 _WIN_CREDIT = 3  # extra credit per target won
@@ -67,8 +80,9 @@ class SearchResult:
 
     Attributes
     ----------
-    mode : str
-        ``"length"``, ``"distance"`` or ``"dimension"``.
+    question : gf2codes.questions.SearchQuestion
+        The question answered; ``mode`` is its name (``"length"``, ``"distance"`` or
+        ``"dimension"``) and ``target`` its given values.
     code : Code
         The best code found; its distance is proved (at least ``d_lower``).
     n, k : int
@@ -86,8 +100,8 @@ class SearchResult:
         The least length / greatest distance / greatest dimension the bounds allow.
     bound_by : str
         The bound that gives it.
-    target : tuple of int
-        The ``(n, k, d)`` asked for (the optimised one is the value found).
+    target : tuple of int or None
+        The ``(n, k, d)`` asked for (``None`` for the optimised one).
     strategy : str
         Who found the code: a strategy name, ``"start"`` or ``"trivial"``.
     seed : int
@@ -104,19 +118,18 @@ class SearchResult:
         Per strategy: ``units`` of work, ``candidates``, ``wins``.
     """
 
-    mode: str
+    question: SearchQuestion
     code: Code
     d: int | None
     d_lower: int
     optimal: bool
     bound: int
     bound_by: str
-    target: tuple[int, int, int]
     strategy: str
     seed: int
     seconds: float
     candidates: int
-    stopped: str
+    stopped: StopReason
     open_target: tuple[int, int, int] | None = None
     stats: dict[str, dict[str, int]] = field(default_factory=dict)
 
@@ -129,34 +142,27 @@ class SearchResult:
         return self.code.k
 
     @property
+    def mode(self) -> Question:
+        return self.question.mode
+
+    @property
+    def target(self) -> tuple[int | None, int | None, int | None]:
+        return self.question.given
+
+    @property
     def value(self) -> int:
         """The optimised quantity (``n``, ``d`` or ``k``) of the code found."""
-        return {"length": self.n, "distance": self.d_lower, "dimension": self.k}[self.mode]
+        return self.question.value_of(self.n, self.k, self.d_lower)
 
     def statement(self) -> str:
         """One plain sentence on what is proved about optimality."""
-        n, k, d = self.n, self.k, self.d if self.d is not None else self.d_lower
-        what = f"[{n},{k},{d}]" if self.d is not None else f"[{n},{k},>={d}]"
-        if self.mode == "length":
-            if self.optimal:
-                return (f"{what} is proved shortest: no [{n - 1},{k},{self.target[2]}] code "
-                        f"exists ({self.bound_by}).")
-            return (f"{what} is the shortest found; n = {n} is only an upper bound on the "
-                    f"shortest length, which the bounds put at >= {self.bound} "
-                    f"({self.bound_by}).")
-        if self.mode == "distance":
-            if self.optimal:
-                return f"{what} has the greatest possible distance ({self.bound_by})."
-            return (f"d = {self.d_lower} is the best found, only a lower bound on the best "
-                    f"possible; the bounds allow d <= {self.bound} ({self.bound_by}).")
-        if self.optimal:
-            return f"{what} has the greatest possible dimension ({self.bound_by})."
-        return (f"k = {k} is the best found, only a lower bound on the best possible; the "
-                f"bounds allow k <= {self.bound} ({self.bound_by}).")
+        return self.question.statement(self.n, self.k, self.d, self.d_lower,
+                                       optimal=self.optimal, bound=self.bound,
+                                       bound_by=self.bound_by)
 
     def to_dict(self) -> dict[str, Any]:
         """JSON-ready summary; keys as in :data:`MODES` for the flag and the bound."""
-        _, flag, bound_key = MODES[self.mode]
+        flag, bound_key = self.question.flag_key, self.question.bound_key
         out: dict[str, Any] = {
             "mode": self.mode, "n": self.n, "k": self.k, "d": self.d, "d_lower": self.d_lower,
             "generator": formats.rows_to_strings(self.code.G),
@@ -173,184 +179,177 @@ class SearchResult:
         return out
 
 
-# ----------------------------------------------------------------------------- helpers
-def _blocks(n: int, k: int) -> Code:
-    """``k`` disjoint repetition blocks covering ``n`` coordinates: ``d = floor(n / k)``."""
-    G = np.zeros((k, n), dtype=np.uint8)
-    sizes = [n // k + (1 if i < n % k else 0) for i in range(k)]
-    start = 0
-    for i, s in enumerate(sizes):
-        G[i, start:start + s] = 1
-        start += s
-    return families.from_rows(G).with_info(name=f"repetition blocks [{n},{k}]")
+# ----------------------------------------------------------------------------- limits
+def check_limits(time_limit: object, max_steps: object, seed: object = 0) -> None:
+    """Check a search's limits and seed; raise :class:`ParameterError`.
 
-
-def _pad(code: Code, n: int) -> Code:
-    """Append ``n - code.n`` zero coordinates (length fixed, distance unchanged)."""
-    G = np.hstack([code.G, np.zeros((code.k, n - code.n), dtype=np.uint8)])
-    return families.from_rows(G).with_info(name=code.name)
-
-
-def _pivots(code: Code) -> list[int]:
-    return [int(np.flatnonzero(row)[0]) for row in code.rref_generator]
-
-
-def _shorten_to(code: Code, k: int) -> Code:
-    """Shorten on ``code.k - k`` information-set coordinates: ``[n - (k' - k), k]``."""
-    extra = code.k - k
-    if extra <= 0:
-        return code
-    return derive.shorten(code, sorted(_pivots(code)[:extra]))
-
-
-def _subcode(code: Code, k: int) -> Code:
-    """The first ``k`` rows of the reduced echelon generator (distance can only grow)."""
-    if code.k <= k:
-        return code
-    sub = families.from_rows(code.rref_generator[:k])
-    return sub.with_info(name=code.name)
-
-
-class _Clock:
-    def __init__(self, time_limit: float | None) -> None:
-        self.start = time.perf_counter()
-        self.deadline = None if time_limit is None else self.start + time_limit
-
-    def expired(self) -> bool:
-        return self.deadline is not None and time.perf_counter() >= self.deadline
-
-    def left(self) -> float | None:
-        return None if self.deadline is None else max(0.0, self.deadline - time.perf_counter())
-
-    def elapsed(self) -> float:
-        return time.perf_counter() - self.start
+    ``time_limit`` is None or positive seconds, ``max_steps`` None or an integer >= 1,
+    ``seed`` an integer >= 0 (the rule of :func:`gf2codes._util.rng`).
+    """
+    if time_limit is not None and (isinstance(time_limit, bool)
+                                   or not isinstance(time_limit, (int, float))
+                                   or not time_limit > 0):
+        raise ParameterError(f"Argument 'time_limit' must be positive, not {time_limit!r}.")
+    if max_steps is not None:
+        check_int("max_steps", max_steps, minimum=1)
+    check_int("seed", seed, minimum=0)
 
 
 class _Stop(Exception):
-    """Internal: a limit was reached (the reason is the message)."""
+    """Internal: a limit was reached."""
+
+    def __init__(self, reason: StopReason) -> None:
+        super().__init__(reason)
+        self.reason: StopReason = reason
 
 
 # ----------------------------------------------------------------------------- driver
-def run_search(
-    mode: str,
-    *,
-    n: int | None = None,
-    k: int | None = None,
-    d: int | None = None,
-    strategies: Sequence[Strategy],
-    time_limit: float | None = 60.0,
-    max_steps: int | None = None,
-    seed: int = 0,
-    start: Sequence[Code] = (),
-    progress: Progress | None = None,
-    on_winner: OnWinner | None = None,
-    prove_time: float | None = None,
-    exhaustive_nodes: int = 200_000,
-) -> SearchResult:
-    """Run the portfolio (see the module docstring). Arguments are validated by the callers
-    in :mod:`gf2codes.search`; ``n``, ``k``, ``d`` are the two fixed parameters."""
-    clock = _Clock(time_limit)
-    seed = int(seed)
-    fixed = {"n": n, "k": k, "d": d}
-    if mode == "length":
-        lb = bounds.least_length(k, d)
-        bound, bound_by = lb.n, lb.by
-    elif mode == "distance":
-        ub = bounds.best_upper(n, k)
-        bound, bound_by = ub.d, ub.by
-    else:
-        db = bounds.max_dimension(n, d)
-        bound, bound_by = db.k, db.by
-    smaller_better = mode == "length"
-    bound_state: dict[str, Any] = {"bound": bound, "by": bound_by}
+class Driver:
+    """One search for one question (see the module docstring); :meth:`run` it once.
 
-    def target_of(v: int) -> tuple[int, int, int]:
-        if mode == "length":
-            return v, k, d
-        if mode == "distance":
-            return n, k, v
-        return n, v, d
+    The steps, in order: :meth:`incumbent` (trivial and starting codes),
+    :meth:`warm_start`, then :meth:`round` after :meth:`round` (one target each, with
+    :meth:`close_by_exhaustion` after every win), and :meth:`prove_winner`.
+    """
 
-    def better(a: int, b: int | None) -> bool:
-        return b is None or (a < b if smaller_better else a > b)
+    def __init__(self, question: SearchQuestion, strategies: Sequence[Strategy], *,
+                 time_limit: float | None = 60.0, max_steps: int | None = None,
+                 seed: int = 0, progress: Progress | None = None,
+                 on_winner: OnWinner | None = None, prove_time: float | None = None,
+                 exhaustive_nodes: int = 200_000) -> None:
+        self.clock = Clock(time_limit)
+        self.q = question
+        self.strategies = list(strategies)
+        self.time_limit, self.max_steps, self.seed = time_limit, max_steps, int(seed)
+        self.progress, self.on_winner = progress, on_winner
+        self.prove_time, self.exhaustive_nodes = prove_time, exhaustive_nodes
+        self.bound, self.bound_by = question.bound()
+        self.stats = {s.name: {"units": 0, "candidates": 0, "wins": 0} for s in strategies}
+        self.best: Code | None = None
+        self.value: int | None = None  # the optimised quantity of the incumbent
+        self.d_exact: int | None = None
+        self.d_lower = 0
+        self.by = ""
+        self.candidates = 0
+        self.steps = 0
+        self.open: tuple[int, int, int] | None = None
+        self.last_report = 0.0
 
-    def step_better(v: int) -> int:
-        return v - 1 if smaller_better else v + 1
-
-    def beyond_bound(v: int) -> bool:
-        b = bound_state["bound"]
-        return v < b if smaller_better else v > b
-
-    stats = {s.name: {"units": 0, "candidates": 0, "wins": 0} for s in strategies}
-    state: dict[str, Any] = {"best": None, "value": None, "d": None, "d_lower": 0, "by": "",
-                             "candidates": 0, "steps": 0, "open": None, "last_report": 0.0}
-
-    def report(note_target: tuple[int, int, int] | None, force: bool = False) -> None:
-        if progress is None:
+    # ------------------------------------------------------------------ bookkeeping
+    def report(self, target: tuple[int, int, int] | None, force: bool = False) -> None:
+        """Call ``progress`` (at most every 0.1 s unless forced)."""
+        if self.progress is None:
             return
-        now = clock.elapsed()
-        if not force and now - state["last_report"] < 0.1:
+        now = self.clock.elapsed()
+        if not force and now - self.last_report < 0.1:
             return
-        state["last_report"] = now
-        rate = state["candidates"] / now if now > 0 else 0.0
-        q = MODES[mode][0]
+        self.last_report = now
+        rate = self.candidates / now if now > 0 else 0.0
         parts = []
-        if note_target is not None:
-            parts.append(f"trying [{note_target[0]},{note_target[1]},{note_target[2]}]")
-        if state["value"] is not None:
-            parts.append(f"best {q}={state['value']}")
+        if target is not None:
+            parts.append(f"trying [{target[0]},{target[1]},{target[2]}]")
+        if self.value is not None:
+            parts.append(f"best {self.q.quantity}={self.value}")
         parts.append(f"{rate:,.0f} cand/s")
-        total = int(1000 * time_limit) if time_limit is not None else int(1000 * now) + 1
-        progress(int(1000 * now), total, {"note": " · ".join(parts), "target": note_target,
-                                          "best": state["value"], "rate": rate})
+        total = (int(1000 * self.time_limit) if self.time_limit is not None
+                 else int(1000 * now) + 1)
+        self.progress(int(1000 * now), total, {"note": " · ".join(parts), "target": target,
+                                               "best": self.value, "rate": rate})
 
-    def check_limits() -> None:
-        if clock.expired():
+    def check_stop(self) -> None:
+        """Raise :class:`_Stop` at the time or step limit."""
+        if self.clock.expired():
             raise _Stop("time limit")
-        if max_steps is not None and state["steps"] >= max_steps:
+        if self.max_steps is not None and self.steps >= self.max_steps:
             raise _Stop("step limit")
 
-    def prove(code: Code, D: int, limit: float) -> tuple[int | None, int]:
-        r = minimum_distance(code, time_limit=limit, max_work=None, workers=1, seed=seed)
-        lower = max(D, r.lower)
-        return (r.upper if r.exact else None), lower
+    def done(self) -> bool:
+        """True when the incumbent attains the bound (nothing better can exist)."""
+        return self.value is not None and self.q.beyond(self.q.step_better(self.value),
+                                                        self.bound)
 
-    def accept(code: Code, D: int, who: str) -> bool:
-        """Target-test ``code`` against ``[n, k, >= D]`` (after fitting); keep it if better."""
-        if mode == "length":
-            if code.k < k:
-                return False
-        else:
+    def rng_for(self, index: int, target: tuple[int, int, int]) -> np.random.Generator:
+        """The generator of strategy ``index`` at ``target``: independent of the schedule."""
+        return np.random.default_rng([self.seed, index, *target])
+
+    def prove(self, code: Code, D: int, limit: float) -> tuple[int | None, int]:
+        """``(exact d or None, proved lower bound >= D)`` within ``limit`` seconds."""
+        r = minimum_distance(code, time_limit=limit, max_work=None, workers=1, seed=self.seed)
+        return (r.upper if r.exact else None), max(D, r.lower)
+
+    def fit(self, code: Code) -> Code | None:
+        """The candidate fitted to the given length (zero coordinates appended), or None
+        when it cannot answer the question (too long, or too small a dimension)."""
+        n, k, _ = self.q.given
+        if n is not None:
             if code.n < n:
-                code = _pad(code, n)
-            if code.n != n or code.k < (k if mode == "distance" else 1):
-                return False
-        state["candidates"] += 1
-        if who in stats:
-            stats[who]["candidates"] += 1
-        left = clock.left()
-        ok = target_test(code, D, time_limit=None if left is None else max(left, 1e-3))
-        if not ok:
+                code = pad_to(code, n)
+            if code.n != n:
+                return None
+        return code if code.k >= (k if k is not None else 1) else None
+
+    def accept(self, code: Code, D: int, who: str) -> bool:
+        """Target-test ``code`` against ``d >= D`` (after fitting); keep it if better."""
+        fitted = self.fit(code)
+        if fitted is None:
             return False
-        if mode == "length":
-            code = _shorten_to(code, k)
-        elif mode == "distance":
-            code = _subcode(code, k)
+        self.candidates += 1
+        if who in self.stats:
+            self.stats[who]["candidates"] += 1
+        left = self.clock.left()
+        if not target_test(fitted, D, time_limit=None if left is None else max(left, 1e-3)):
+            return False
+        n, k, d = self.q.given
+        if k is not None:  # exactly the dimension asked for
+            fitted = shorten_to(fitted, k) if n is None else subcode(fitted, k)
         d_exact, d_lower = None, D
-        if mode == "distance":  # a short proof may show more than the target
-            d_exact, d_lower = prove(code, D, 0.5)
-        value = {"length": code.n, "distance": d_lower, "dimension": code.k}[mode]
-        if not better(value, state["value"]):
+        if d is None:  # the distance is optimised: a short proof may show more than D
+            d_exact, d_lower = self.prove(fitted, D, 0.5)
+        value = self.q.value_of(fitted.n, fitted.k, d_lower)
+        if not self.q.better(value, self.value):
             return False
-        state.update(best=code, value=value, d=d_exact, d_lower=d_lower, by=who)
-        if who in stats:
-            stats[who]["wins"] += 1
+        self.best, self.value, self.d_exact, self.d_lower, self.by = \
+            fitted, value, d_exact, d_lower, who
+        if who in self.stats:
+            self.stats[who]["wins"] += 1
         return True
 
-    def done() -> bool:
-        return state["value"] is not None and beyond_bound(step_better(state["value"]))
+    # ------------------------------------------------------------------------ steps
+    def incumbent(self, start: Sequence[Code]) -> None:
+        """Step 1: the trivial code (repetition blocks), then the starting codes."""
+        tn, tk, tD = self.q.trivial()
+        self.accept(repetition_blocks(tn, tk), tD, "trivial")
+        n, k, d = self.q.given
+        for code in start:
+            self.check_stop()
+            if d is not None:
+                self.accept(code, d, "start")
+            elif code.n == n and k is not None and code.k >= k:
+                _, dl = self.prove(code, 1, 2.0)  # the distance is the value: prove it
+                if self.q.better(dl, self.value):
+                    self.accept(code, dl, "start")
 
-    def close_by_exhaustion() -> None:
+    def warm_start(self) -> None:
+        """Step 2: the ``warm`` strategies at each value from the bound outwards, until
+        one gives a code better than the incumbent (at most ``_WARM_VALUES`` values)."""
+        warm = [(i, s) for i, s in enumerate(self.strategies) if s.warm]
+        v, tried = self.bound, 0
+        while warm and not self.done() and self.q.better(v, self.value) \
+                and tried < _WARM_VALUES:
+            tgt = self.q.target(v)
+            self.report(tgt, force=True)
+            for i, s in warm:
+                for cand in s.candidates(*tgt, self.rng_for(i, tgt)):
+                    self.check_stop()
+                    self.steps += 1
+                    self.stats[s.name]["units"] += 1
+                    self.report(tgt)
+                    if cand is not None and self.accept(cand, tgt[2], s.name):
+                        return
+            tried += 1
+            v = self.q.step_worse(v)
+
+    def close_by_exhaustion(self) -> None:
         """Decide the target one step better than the incumbent by exhaustive search.
 
         A "none" is a proof that the incumbent is optimal: the bound moves to it and the
@@ -362,155 +361,124 @@ def run_search(
         """
         from ..existence import MAX_REDUNDANCY, decide_existence
 
-        while state["value"] is not None and not done() and exhaustive_nodes > 0:
-            tgt = target_of(step_better(state["value"]))
-            tn, tk, td = tgt
+        while self.value is not None and not self.done() and self.exhaustive_nodes > 0:
+            tn, tk, td = tgt = self.q.target(self.q.step_better(self.value))
             if not (1 <= tk <= tn) or tn - tk > MAX_REDUNDANCY:
                 return
-            left = clock.left()
+            left = self.clock.left()
             if left is not None and left <= 0:
                 return
-            report(tgt, force=True)
-            dec = decide_existence(tn, tk, td, max_nodes=exhaustive_nodes,
+            self.report(tgt, force=True)
+            dec = decide_existence(tn, tk, td, max_nodes=self.exhaustive_nodes,
                                    time_limit=None if left is None else max(left, 1e-3))
-            stats.setdefault("exhaustive", {"units": 0, "candidates": 0, "wins": 0})
-            stats["exhaustive"]["units"] += dec.nodes
+            self.stats.setdefault("exhaustive", {"units": 0, "candidates": 0, "wins": 0})
+            self.stats["exhaustive"]["units"] += dec.nodes
             if dec.stopped == "interrupted":
                 raise KeyboardInterrupt
             if dec.status == "none":
-                bound_state["bound"] = state["value"]
-                bound_state["by"] = f"exhaustive search, {dec.nodes:,} nodes"
+                self.bound, self.bound_by = self.value, f"exhaustive search, {dec.nodes:,} nodes"
                 return
             if dec.status != "exists":
                 return
-            if not accept(families.from_rows(np.array(dec.generator(), dtype=np.uint8))
-                          .with_info(name=f"exhaustive search [{tn},{tk},{td}]"),
-                          td, "exhaustive"):
+            witness = families.from_rows(np.array(dec.generator(), dtype=np.uint8))
+            if not self.accept(witness.with_info(name=f"exhaustive search [{tn},{tk},{td}]"),
+                               td, "exhaustive"):
                 return  # pragma: no cover - a witness is always a valid candidate
 
-    def rng_for(index: int, target: tuple[int, int, int]) -> np.random.Generator:
-        return np.random.default_rng([seed, index, *target])
+    def round(self, target: tuple[int, int, int]) -> bool:
+        """Step 3, once per target: the whole portfolio on ``target`` until a strategy
+        wins (True) or every strategy is exhausted (False).
 
-    stopped = "exhausted"
-    try:
-        # 1. incumbent: the trivial code, then the starting codes
-        if mode == "length":
-            accept(_blocks(k * d, k), d, "trivial")
-        elif mode == "distance":
-            accept(_blocks(n, k), max(1, n // k), "trivial")
-        else:
-            accept(_blocks(n, max(1, n // d)), d, "trivial")
-        for code in start:
-            check_limits()
-            if mode == "distance":
-                if code.n == n and code.k >= k:
-                    _, dl = prove(code, 1, 2.0)
-                    if better(dl, state["value"]):
-                        accept(code, dl, "start")
-            else:
-                accept(code, fixed["d"], "start")
-        # 2. warm start: exhaustible deterministic strategies, from the bound outwards
-        warm = [(i, s) for i, s in enumerate(strategies) if s.name in ("families", "lexicode")]
-        v = bound
-        tried = 0
-        while warm and not done() and better(v, state["value"]) and tried < _WARM_VALUES:
-            tgt = target_of(v)
-            report(tgt, force=True)
-            found = False
-            for i, s in warm:
-                for cand in s.candidates(*tgt, rng_for(i, tgt)):
-                    check_limits()
-                    state["steps"] += 1
-                    stats[s.name]["units"] += 1
-                    report(tgt)
-                    if cand is not None and accept(cand, tgt[2], s.name):
-                        found = True
-                        break
-                if found:
-                    break
-            if found:
-                break
-            tried += 1
-            v = v + 1 if smaller_better else v - 1
-        close_by_exhaustion()
-        # 3. the portfolio, one target at a time
-        while not done():
-            tgt = target_of(step_better(state["value"]))
-            state["open"] = tgt
-            report(tgt, force=True)
-            iters: dict[int, Any] = {}
-            live = list(range(len(strategies)))
-            units = [0] * len(strategies)
-            won = False
-            while live and not won:
-                check_limits()
-                credit = [1 + _WIN_CREDIT * stats[strategies[i].name]["wins"] for i in live]
-                i = min(zip(live, credit, strict=True), key=lambda t: units[t[0]] / t[1])[0]
-                s = strategies[i]
-                if i not in iters:
-                    iters[i] = iter(s.candidates(*tgt, rng_for(i, tgt)))
-                try:
-                    cand = next(iters[i])
-                except StopIteration:
-                    live.remove(i)
-                    continue
-                units[i] += 1
-                state["steps"] += 1
-                stats[s.name]["units"] += 1
-                report(tgt)
-                if cand is not None and accept(cand, tgt[2], s.name):
-                    won = True
-            if not won:
-                stopped = "exhausted"
-                break
-            state["open"] = None
-            close_by_exhaustion()
-        else:
-            stopped = "bound attained"
-    except _Stop as stop:
-        stopped = str(stop)
-    except KeyboardInterrupt:
-        stopped = "interrupted"
-    if state["best"] is None:  # interrupted before even the trivial code was accepted
-        raise KeyboardInterrupt
-    if done():
-        stopped, state["open"] = "bound attained", None
-    best: Code = state["best"]
-    if not best.recipe:  # a searched matrix: its rows are its recipe
-        best = families.from_rows(best.G).with_info(name=best.name)
-    # the winner's distance, proved exactly (given its own time: short after Ctrl-C)
-    try:
-        limit = prove_time if prove_time is not None else (
-            2.0 if stopped == "interrupted" else 30.0)
-        d_exact, d_lower = prove(best, state["d_lower"], limit)
-    except KeyboardInterrupt:
-        d_exact, d_lower = state["d"], state["d_lower"]
-        stopped = "interrupted"
-    if on_winner is not None:
-        on_winner(best, d_exact if d_exact is not None else d_lower,
-                  {"strategy": state["by"], "seed": seed, "exact": d_exact is not None,
-                   "mode": mode})
-    return SearchResult(
-        mode=mode, code=best, d=d_exact, d_lower=d_lower, optimal=done(),
-        bound=bound_state["bound"], bound_by=bound_state["by"], target=(n, k, d),
-        strategy=state["by"], seed=seed, seconds=clock.elapsed(),
-        candidates=state["candidates"], stopped=stopped, open_target=state["open"],
-        stats=stats,
-    )
+        Each step gives one unit of work to the live strategy with the fewest units
+        relative to its credit (``1 + _WIN_CREDIT * wins``), ties to the earlier one.
+        """
+        iters: dict[int, Iterator[Code | None]] = {}
+        live = list(range(len(self.strategies)))
+        units = [0] * len(self.strategies)
+        while live:
+            self.check_stop()
+            credit = [1 + _WIN_CREDIT * self.stats[self.strategies[i].name]["wins"]
+                      for i in live]
+            i = min(zip(live, credit, strict=True), key=lambda t: units[t[0]] / t[1])[0]
+            s = self.strategies[i]
+            if i not in iters:
+                iters[i] = iter(s.candidates(*target, self.rng_for(i, target)))
+            try:
+                cand = next(iters[i])
+            except StopIteration:
+                live.remove(i)
+                continue
+            units[i] += 1
+            self.steps += 1
+            self.stats[s.name]["units"] += 1
+            self.report(target)
+            if cand is not None and self.accept(cand, target[2], s.name):
+                return True
+        return False
+
+    def rounds(self) -> StopReason:
+        """Rounds on ever better targets until the bound is attained or a round fails."""
+        while self.value is not None and not self.done():
+            tgt = self.q.target(self.q.step_better(self.value))
+            self.open = tgt
+            self.report(tgt, force=True)
+            if not self.round(tgt):
+                return "exhausted"
+            self.open = None
+            self.close_by_exhaustion()
+        return "bound attained"
+
+    def prove_winner(self, stopped: StopReason) -> SearchResult:
+        """Step 4: the winner's distance, proved exactly (given its own time: short after
+        Ctrl-C), ``on_winner`` told, and the result."""
+        if self.best is None:  # interrupted before even the trivial code was accepted
+            raise KeyboardInterrupt
+        if self.done():
+            stopped, self.open = "bound attained", None
+        best = self.best
+        if not best.recipe:  # a searched matrix: its rows are its recipe
+            best = families.from_rows(best.G).with_info(name=best.name)
+        try:
+            limit = self.prove_time if self.prove_time is not None else (
+                2.0 if stopped == "interrupted" else 30.0)
+            d_exact, d_lower = self.prove(best, self.d_lower, limit)
+        except KeyboardInterrupt:
+            d_exact, d_lower = self.d_exact, self.d_lower
+            stopped = "interrupted"
+        if self.on_winner is not None:
+            self.on_winner(best, d_exact if d_exact is not None else d_lower,
+                           {"strategy": self.by, "seed": self.seed,
+                            "exact": d_exact is not None, "mode": self.q.mode})
+        return SearchResult(
+            question=self.q, code=best, d=d_exact, d_lower=d_lower, optimal=self.done(),
+            bound=self.bound, bound_by=self.bound_by, strategy=self.by, seed=self.seed,
+            seconds=self.clock.elapsed(), candidates=self.candidates, stopped=stopped,
+            open_target=self.open, stats=self.stats,
+        )
+
+    def run(self, start: Sequence[Code] = ()) -> SearchResult:
+        """All the steps; always returns the best proved result (also after Ctrl-C)."""
+        stopped: StopReason = "exhausted"
+        try:
+            self.incumbent(start)
+            self.warm_start()
+            self.close_by_exhaustion()
+            stopped = self.rounds()
+        except _Stop as stop:
+            stopped = stop.reason
+        except KeyboardInterrupt:
+            stopped = "interrupted"
+        return self.prove_winner(stopped)
 
 
-def validate(mode: str, n: object, k: object, d: object, time_limit: object,
-             max_steps: object) -> tuple[int | None, int | None, int | None]:
-    """Check the two fixed parameters and the limits; raise :class:`ParameterError`."""
-    if time_limit is not None and (isinstance(time_limit, bool)
-                                   or not isinstance(time_limit, (int, float))
-                                   or not time_limit > 0):
-        raise ParameterError(f"Argument 'time_limit' must be positive, not {time_limit!r}.")
-    if max_steps is not None:
-        check_int("max_steps", max_steps, minimum=1)
-    if mode == "length":
-        return None, check_int("k", k, minimum=1), check_int("d", d, minimum=1)
-    n = check_int("n", n, minimum=1)
-    if mode == "distance":
-        return n, check_int("k", k, minimum=1, maximum=n), None
-    return n, None, check_int("d", d, minimum=1, maximum=n)
+def run_search(question: SearchQuestion, *, strategies: Sequence[Strategy],
+               time_limit: float | None = 60.0, max_steps: int | None = None, seed: int = 0,
+               start: Sequence[Code] = (), progress: Progress | None = None,
+               on_winner: OnWinner | None = None, prove_time: float | None = None,
+               exhaustive_nodes: int = 200_000) -> SearchResult:
+    """Run the portfolio on ``question`` (see the module docstring and :class:`Driver`).
+    The limits are checked by the callers in :mod:`gf2codes.search`
+    (:func:`check_limits`)."""
+    return Driver(question, strategies, time_limit=time_limit, max_steps=max_steps, seed=seed,
+                  progress=progress, on_winner=on_winner, prove_time=prove_time,
+                  exhaustive_nodes=exhaustive_nodes).run(start)

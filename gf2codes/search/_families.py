@@ -147,6 +147,7 @@ class FamilyDerivation(Strategy):
     name = "families"
     summary = "named families (Hamming, Reed-Muller, Golay, BCH, QR) shortened/punctured/extended"
     exhaustible = True
+    warm = True
 
     def candidates(self, n: int, k: int, D: int,
                    rng: np.random.Generator) -> Iterator[Code | None]:

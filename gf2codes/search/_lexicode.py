@@ -46,6 +46,7 @@ class Lexicode(Strategy):
     name = "lexicode"
     summary = "the greedy lexicographic code (Conway & Sloane 1986)"
     exhaustible = True
+    warm = True
 
     def candidates(self, n: int, k: int, D: int,
                    rng: np.random.Generator) -> Iterator[Code | None]:

@@ -12,13 +12,14 @@ running finish their own limits.
 from __future__ import annotations
 
 import dataclasses
-import time
 from collections.abc import Sequence
 
 import numpy as np
 
+from .._util import Clock
 from ..code import Code
-from ._driver import SearchResult, run_search, validate
+from ..questions import SearchQuestion
+from ._driver import SearchResult, check_limits, run_search
 
 __all__ = ["run_portfolio_parallel"]
 
@@ -27,53 +28,44 @@ def _task(payload: tuple) -> SearchResult:
     """One strategy's search (runs in a worker process)."""
     from . import STRATEGIES
 
-    mode, n, k, d, name, time_limit, max_steps, seed, start = payload
+    question, name, time_limit, max_steps, seed, start = payload
     codes = [Code.from_packed(np.frombuffer(rows, dtype=np.uint64).reshape(kk, -1), nn)
              for rows, nn, kk in start]
-    return run_search(mode, n=n, k=k, d=d, strategies=[STRATEGIES[name]],
+    return run_search(question, strategies=[STRATEGIES[name]],
                       time_limit=time_limit, max_steps=max_steps, seed=seed, start=codes)
 
 
-def _better(mode: str, a: SearchResult, b: SearchResult | None) -> bool:
-    if b is None:
-        return True
-    if mode == "length":
-        return a.value < b.value
-    return a.value > b.value
-
-
-def run_portfolio_parallel(mode: str, *, n: int | None, k: int | None, d: int | None,
-                           strategy_names: Sequence[str], executor, time_limit: float | None,
-                           max_steps: int | None, seed: int, start: Sequence[Code] = ()
-                           ) -> SearchResult:
+def run_portfolio_parallel(question: SearchQuestion, *, strategy_names: Sequence[str],
+                           executor, time_limit: float | None, max_steps: int | None,
+                           seed: int, start: Sequence[Code] = ()) -> SearchResult:
     """Run every strategy as a task on ``executor`` and merge (see the module docstring)."""
-    n, k, d = validate(mode, n, k, d, time_limit, max_steps)
-    t0 = time.perf_counter()
+    check_limits(time_limit, max_steps, seed)
+    clock = Clock(None)
     packed = [(np.ascontiguousarray(c.packed_generator).tobytes(), c.n, c.k) for c in start]
-    payloads = [(mode, n, k, d, name, time_limit, max_steps, int(seed), packed)
+    payloads = [(question, name, time_limit, max_steps, int(seed), packed)
                 for name in strategy_names]
     results: dict[int, SearchResult] = {}
     stream = executor.run_unordered(_task, payloads)
     try:
         for i, res in stream:
             results[i] = res
-            winner = _merge(mode, results, len(payloads), final=False)
+            winner = _merge(question, results, len(payloads), final=False)
             if winner is not None:
                 break
     finally:
         stream.close()
-    best = _merge(mode, results, len(payloads), final=True)
+    best = _merge(question, results, len(payloads), final=True)
     assert best is not None
     stats = {}
     for i in sorted(results):
         stats.update(results[i].stats)
-    return dataclasses.replace(best, seconds=time.perf_counter() - t0,
+    return dataclasses.replace(best, seconds=clock.elapsed(),
                                candidates=sum(r.candidates for r in results.values()),
                                stats=stats)
 
 
-def _merge(mode: str, results: dict[int, SearchResult], total: int, *, final: bool
-           ) -> SearchResult | None:
+def _merge(question: SearchQuestion, results: dict[int, SearchResult], total: int, *,
+           final: bool) -> SearchResult | None:
     """The winner by the fixed rule, or None while it could still change (final=False)."""
     best = None
     for i in range(total):
@@ -82,7 +74,7 @@ def _merge(mode: str, results: dict[int, SearchResult], total: int, *, final: bo
                 continue
             return None  # an earlier strategy could still attain the bound or tie
         r = results[i]
-        if _better(mode, r, best):
+        if question.better(r.value, None if best is None else best.value):
             best = r
         if best is not None and best.optimal and not final:
             return best
