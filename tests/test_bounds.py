@@ -21,6 +21,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from gf2codes import bounds as B
+from gf2codes.bounds.formulas import plotkin_size
+from gf2codes.bounds.lp import krawtchouk_table
 from gf2codes.exceptions import ParameterError
 
 REPO = Path(__file__).resolve().parents[1]
@@ -194,7 +196,7 @@ def test_lp_and_hamming_beat_griesmer_at_31_16():
 def test_krawtchouk_exact():
     # definition K_j(i) = sum_s (-1)^s C(i, s) C(n-i, j-s) (MS77 ch. 5 §7)
     for n in (1, 2, 7, 24, 25):
-        K = B._krawtchouk(n)
+        K = krawtchouk_table(n)
         for j in range(n // 2 + 1):
             for i in range(0, n + 1, 2):
                 ref = sum((-1) ** s * math.comb(i, s) * math.comb(n - i, j - s)
@@ -248,13 +250,13 @@ def test_plotkin_range_of_validity():
     for d in range(1, 30):
         top = 2 * d if d % 2 == 0 else 2 * d + 1
         for n in range(1, 70):
-            size = B._plotkin_size(n, d)
+            size = plotkin_size(n, d)
             assert (size is None) == (n < d or n > top), (n, d)
     # A(8,4) = 16, A(11,6) = 12, A(16,8) = 32: Plotkin is attained by Hadamard-type codes
     # (MS77 ch. 2 §3, table of A(n,d) in MS77 app. A; from memory)
-    assert B._plotkin_size(8, 4) == 16
-    assert B._plotkin_size(11, 6) == 12
-    assert B._plotkin_size(16, 8) == 32
+    assert plotkin_size(8, 4) == 16
+    assert plotkin_size(11, 6) == 12
+    assert plotkin_size(16, 8) == 32
     # beyond 2d the bound exists through shortening and stays valid:
     assert B.plotkin_bound(32, 6) >= 16  # RM(1,5)
     assert B.plotkin_bound(72, 64) >= 4
