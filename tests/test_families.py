@@ -431,7 +431,7 @@ def test_factorisation_of_x_n_minus_1(n):
     # product (with multiplicities) is x^n - 1; galois checks both (reference library).
     import galois
 
-    from gf2codes.families import _factor_x_n_minus_1
+    from gf2codes.polynomials import factor_x_n_minus_1 as _factor_x_n_minus_1
 
     factors, mults = _factor_x_n_minus_1(n)
     product = galois.Poly.One()

@@ -78,19 +78,14 @@ from .lower import (
     lower_bounds,
     varshamov,
 )
-from .registry import (
-    EXACT_LENGTH_LIMIT,
-    LP_LENGTH_LIMIT,
-    Bound,
-    lower_names,
-    register,
-    title,
-    unregister,
-    upper_names,
-)
+from .registry import EXACT_LENGTH_LIMIT, LP_LENGTH_LIMIT, lower_names, upper_names
+from .registry import Bound as Bound
+from .registry import register as register
+from .registry import title as title
+from .registry import unregister as unregister
 from .results import DimensionBound, LengthBound, UpperBound
+from .table import NONEXISTENCE_FILE as NONEXISTENCE_FILE
 from .table import (
-    NONEXISTENCE_FILE,
     TABLE_LENGTH,
     best_upper,
     bound_chain,
@@ -113,18 +108,16 @@ from .upper import (
     upper_bounds,
 )
 
+# The registry (Bound, register, unregister, upper_names, lower_names, title) and
+# reset_tables / NONEXISTENCE_FILE are importable from here but not listed: the top-level
+# namespace re-exports __all__, and names like ``register`` or ``title`` would mean
+# nothing there.
 __all__ = [
     "UpperBound",
     "LengthBound",
     "DimensionBound",
     "UPPER_BOUND_NAMES",
     "LOWER_BOUND_NAMES",
-    "Bound",
-    "register",
-    "unregister",
-    "upper_names",
-    "lower_names",
-    "title",
     "singleton_bound",
     "hamming_bound",
     "plotkin_bound",
@@ -135,8 +128,6 @@ __all__ = [
     "best_upper",
     "bound_chain",
     "proved_nonexistence",
-    "reset_tables",
-    "NONEXISTENCE_FILE",
     "TABLE_LENGTH",
     "LP_LENGTH_LIMIT",
     "EXACT_LENGTH_LIMIT",

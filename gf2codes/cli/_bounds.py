@@ -128,8 +128,8 @@ def _run_nk(n: int, k: int, as_json: bool) -> int:
     lo = Table(title="Existence bounds")
     lo.add_column("bound")
     lo.add_column("d at least", justify="right")
-    for name, value in lower.items():
-        lo.add_row(B.title(name), str(value))
+    for name, low in lower.items():
+        lo.add_row(B.title(name), str(low))
     console.print(lo)
     if not lower:
         console.print(f"  (existence bounds skipped; {n // k or 1} = floor(n/k) from "
