@@ -49,7 +49,7 @@ from __future__ import annotations
 
 import math
 import re
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Container, Iterable, Iterator, Sequence
 from dataclasses import dataclass, field
 from itertools import combinations
 from typing import Any, cast
@@ -63,13 +63,14 @@ from .exceptions import ParameterError, check_int
 from .polynomials import (
     PRIMITIVE_POLYNOMIALS,
     FieldTables,
+    GeneratorPolynomial,
     ascending,
     bch_bound,
     berlekamp_factors,
     cyclotomic_coset,
     defining_set_of,
-    factor_x_n_minus_1,
     galois,
+    generator_polynomials,
     is_prime,
     parse_polynomial,
     polynomial_to_octal,
@@ -77,37 +78,16 @@ from .polynomials import (
 )
 
 __all__ = [
-    "MAX_LENGTH",
-    "berlekamp_factors",
-    "repetition",
-    "even_weight",
-    "hamming",
-    "extended_hamming",
-    "simplex",
-    "reed_muller",
-    "golay",
-    "extended_golay",
-    "bch",
-    "quadratic_residue",
-    "cyclic",
-    "generator_polynomials",
-    "GeneratorPolynomial",
-    "quasi_cyclic",
-    "double_circulant",
-    "from_rows",
-    "parse_polynomial",
-    "GOLAY_POLYNOMIAL",
-    "PRIMITIVE_POLYNOMIALS",
-    "polynomial_to_octal",
-    "bch_bound",
-    "FamilyArgument",
-    "Family",
-    "FAMILIES",
+    "MAX_LENGTH", "berlekamp_factors", "repetition", "even_weight", "hamming",
+    "extended_hamming", "simplex", "reed_muller", "golay", "extended_golay", "bch",
+    "quadratic_residue", "cyclic", "generator_polynomials", "GeneratorPolynomial",
+    "quasi_cyclic", "double_circulant", "from_rows", "parse_polynomial", "GOLAY_POLYNOMIAL",
+    "PRIMITIVE_POLYNOMIALS", "polynomial_to_octal", "bch_bound", "FamilyArgument", "Family",
+    "FAMILIES", "construction_note",
 ]
 
 #: Longest code the families build (a generator matrix of at most about 2^24 bits).
 MAX_LENGTH = 4096
-
 
 
 # ----------------------------------------------------------------- helpers
@@ -510,67 +490,6 @@ def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
                         recipe={"family": "cyclic", "n": n, "generator_polynomial": octal})
 
 
-@dataclass(frozen=True)
-class GeneratorPolynomial:
-    """A divisor ``g`` of ``x^n - 1``: the generator polynomial of a cyclic code of length
-    ``n`` and dimension ``k = n - deg g``."""
-
-    polynomial: galois.Poly
-    n: int
-    k: int
-
-    @property
-    def octal(self) -> str:
-        """``g`` in octal notation (see :func:`polynomial_to_octal`)."""
-        return polynomial_to_octal(self.polynomial)
-
-    def build(self) -> Code:
-        """The cyclic code that ``g`` generates (see :func:`cyclic`)."""
-        return cyclic(self.n, self.polynomial)
-
-
-def generator_polynomials(n: int, *, limit: int = 65536) -> list[GeneratorPolynomial]:
-    """The generator polynomial of every nonzero cyclic code of length ``n``: every
-    divisor of ``x^n - 1`` except itself.
-
-    The divisors are the products of the irreducible factors of ``x^n - 1``
-    (with multiplicity when ``n`` is even); ``g = x^n - 1`` (the zero code) is
-    left out and ``g = 1`` (the whole space) included. Sorted by dimension
-    (largest first), then by the integer value of the polynomial.
-
-    Parameters
-    ----------
-    n : int
-        Length, ``1 <= n <= 4096``.
-    limit : int
-        Refuse (``ParameterError``) when there would be more codes than this.
-
-    References
-    ----------
-    .. [1] MacWilliams & Sloane (1977), ch. 7 section 5.
-
-    >>> [(g.octal, g.k) for g in generator_polynomials(7)]
-    [('0o1', 7), ('0o3', 6), ('0o13', 4), ('0o15', 4), ('0o27', 3), ('0o35', 3), ('0o177', 1)]
-    """
-    n = check_int("n", n, minimum=1, maximum=MAX_LENGTH)
-    factors, mults = factor_x_n_minus_1(n)
-    count = math.prod(e + 1 for e in mults) - 1
-    if count > limit:
-        raise ParameterError(
-            f"x^{n} - 1 has {count} proper divisors, more than the limit {limit}; "
-            "raise 'limit' to list them all."
-        )
-    divisors = [galois.Poly.One()]
-    for f, e in zip(factors, mults, strict=True):
-        powers = [galois.Poly.One()]
-        for _ in range(e):
-            powers.append(powers[-1] * f)
-        divisors = [d * q for d in divisors for q in powers]
-    out = [GeneratorPolynomial(d, n, n - d.degree) for d in divisors if d.degree < n]
-    out.sort(key=lambda g: (-g.k, int(g.polynomial)))
-    return out
-
-
 def quasi_cyclic(rows: Sequence[str] | npt.ArrayLike, m: int) -> Code:
     """A quasi-cyclic code of co-index ``m``: each row with all its block-wise shifts.
 
@@ -704,18 +623,123 @@ class FamilyArgument:
     default: Any = None
 
 
+#: ``space(max_length, wanted)``: the argument dicts of a family's members of length at
+#: most ``max_length`` whose length passes ``wanted``, in the family's order.
+Space = Callable[[int, Callable[[int], bool]], Iterator[dict[str, Any]]]
+
+
 @dataclass(frozen=True)
 class Family:
-    """A named construction: what it is, its arguments, and the function that builds it."""
+    """A named construction: what it is, its arguments, and the function that builds it.
+
+    ``space`` declares the family's parameter space once (see :meth:`instances`);
+    ``parameters(**kwargs)`` gives the proved ``(n, k, d_lower)`` of a member without
+    building it, where a formula does; ``describe(step)`` explains what a one-step
+    recipe of the family proves about d (shown by ``gf2codes build``).
+    """
 
     name: str
     description: str
     builder: Callable[..., Code]
     arguments: tuple[FamilyArgument, ...] = field(default=())
     example: str = ""
+    space: Space | None = None
+    parameters: Callable[..., tuple[int, int, int]] | None = None
+    describe: Callable[[dict[str, Any]], str] | None = None
 
     def build(self, **kwargs: Any) -> Code:
         return self.builder(**kwargs)
+
+    def instances(self, max_length: int,
+                  lengths: Container[int] | None = None) -> Iterator[dict[str, Any]]:
+        """The keyword arguments of every member of length at most ``max_length`` (and in
+        ``lengths``, if given), in the family's order; nothing for a family without a
+        parameter space (``matrix``, ``double-circulant``, ``quasi-cyclic``).
+
+        >>> list(FAMILIES["hamming"].instances(15))
+        [{'m': 2}, {'m': 3}, {'m': 4}]
+        """
+        if self.space is None:
+            return iter(())
+        return self.space(max_length, (lambda n: True) if lengths is None
+                          else (lambda n: n in lengths))
+
+
+def construction_note(code: Code) -> str | None:
+    """What the family of a one-step recipe says about d beyond the claimed bounds (the
+    BCH designed distance), or None."""
+    first = code.recipe[0] if len(code.recipe) == 1 else {}
+    family = FAMILIES.get(str(first.get("family")))
+    return family.describe(first) if family is not None and family.describe else None
+
+
+# ------------------------------------------------------------ parameter spaces
+def _by_length(lengths: Iterable[int], max_length: int, wanted: Callable[[int], bool],
+               args: Callable[[int], Iterable[dict[str, Any]]]) -> Iterator[dict[str, Any]]:
+    for n in lengths:
+        if n > max_length:
+            return
+        if wanted(n):
+            yield from args(n)
+
+
+def _m_space(length: Callable[[int], int], first_m: int = 2) -> Space:
+    """Members ``{"m": m}`` for ``m = first_m .. 12`` of length ``length(m)``."""
+    def space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+        for m in range(first_m, 13):
+            if length(m) > max_length:
+                return
+            if wanted(length(m)):
+                yield {"m": m}
+    return space
+
+
+def _reed_muller_space(max_length: int, wanted: Callable[[int], bool]
+                       ) -> Iterator[dict[str, Any]]:
+    for m in range(1, 13):
+        if 2**m > max_length:
+            return
+        if wanted(2**m):
+            yield from ({"r": r, "m": m} for r in range(m + 1))
+
+
+def _fixed(n: int) -> Space:
+    def space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+        if n <= max_length and wanted(n):
+            yield {}
+    return space
+
+
+def _bch_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+    yield from _by_length((2**m - 1 for m in range(2, 13)), max_length, wanted,
+                          lambda n: ({"n": n, "designed": e, "b": 1} for e in range(2, n + 1)))
+
+
+def _cyclic_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+    yield from _by_length(range(1, MAX_LENGTH + 1), max_length, wanted, lambda n: (
+        {"n": n, "generator_polynomial": g.octal} for g in generator_polynomials(n)))
+
+
+def _length_space(first: int) -> Space:
+    def space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+        yield from _by_length(range(first, MAX_LENGTH + 1), max_length, wanted,
+                              lambda n: ({"n": n},))
+    return space
+
+
+def _qr_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+    yield from _by_length(range(7, MAX_LENGTH + 1), max_length, wanted,
+                          lambda p: ({"p": p},) if is_prime(p) and p % 8 in (1, 7) else ())
+
+
+def _rm_parameters(r: int, m: int) -> tuple[int, int, int]:
+    return 2**m, sum(math.comb(m, i) for i in range(r + 1)), 2 ** (m - r)
+
+
+def _bch_note(step: dict[str, Any]) -> str:
+    return (f"designed distance δ = {step['designed']}; the lower bound is the BCH "
+            "bound (d ≥ δ, or more when the roots run on), the upper bound the weight "
+            "of the generator polynomial")
 
 
 def _int(name: str, help_: str, **kw: Any) -> FamilyArgument:
@@ -727,34 +751,41 @@ FAMILIES: dict[str, Family] = {
     f.name: f
     for f in [
         Family("repetition", "[n, 1, n] repetition code", repetition,
-               (_int("n", "length"),), "repetition 5"),
+               (_int("n", "length"),), "repetition 5", _length_space(1),
+               lambda n: (n, 1, n)),
         Family("even-weight", "[n, n-1, 2] single parity check code", even_weight,
-               (_int("n", "length, 2..4096"),), "even-weight 8"),
+               (_int("n", "length, 2..4096"),), "even-weight 8", _length_space(2),
+               lambda n: (n, n - 1, 2)),
         Family("hamming", "[2^m-1, 2^m-1-m, 3] Hamming code", hamming,
-               (_int("m", "redundancy, 2..12"),), "hamming 3"),
+               (_int("m", "redundancy, 2..12"),), "hamming 3", _m_space(lambda m: 2**m - 1),
+               lambda m: (2**m - 1, 2**m - 1 - m, 3)),
         Family("extended-hamming", "[2^m, 2^m-1-m, 4] extended Hamming code",
-               extended_hamming, (_int("m", "2..12"),), "extended-hamming 7"),
+               extended_hamming, (_int("m", "2..12"),), "extended-hamming 7",
+               _m_space(lambda m: 2**m), lambda m: (2**m, 2**m - 1 - m, 4)),
         Family("simplex", "[2^m-1, m, 2^(m-1)] simplex code (dual of Hamming)", simplex,
-               (_int("m", "2..12"),), "simplex 4"),
+               (_int("m", "2..12"),), "simplex 4", _m_space(lambda m: 2**m - 1),
+               lambda m: (2**m - 1, m, 2 ** (m - 1))),
         Family("reed-muller", "[2^m, sum_{i<=r} C(m,i), 2^(m-r)] Reed-Muller code RM(r, m)",
                reed_muller, (_int("r", "order, 0..m"), _int("m", "1..12")),
-               "reed-muller 2 6"),
-        Family("golay", "[23, 12, 7] binary Golay code", golay, (), "golay"),
+               "reed-muller 2 6", _reed_muller_space, _rm_parameters),
+        Family("golay", "[23, 12, 7] binary Golay code", golay, (), "golay", _fixed(23),
+               lambda: (23, 12, 7)),
         Family("extended-golay", "[24, 12, 8] extended binary Golay code", extended_golay,
-               (), "extended-golay"),
+               (), "extended-golay", _fixed(24), lambda: (24, 12, 8)),
         Family("bch", "primitive BCH code, length 2^m-1, designed distance δ (d ≥ δ)", bch,
                (_int("n", "length 2^m-1, 3..4095"),
                 _int("designed", "designed distance δ, 2..n", option=True),
                 _int("b", "first root exponent (1 = narrow sense), 0..n-1", option=True,
                      required=False, default=1)),
-               "bch 63 --designed 11"),
+               "bch 63 --designed 11", _bch_space, describe=_bch_note),
         Family("qr", "[p, (p+1)/2] quadratic-residue code, p prime ≡ ±1 mod 8",
-               quadratic_residue, (_int("p", "prime ≡ ±1 mod 8, 7..4096"),), "qr 47"),
+               quadratic_residue, (_int("p", "prime ≡ ±1 mod 8, 7..4096"),), "qr 47",
+               _qr_space),
         Family("cyclic", "cyclic code from a generator polynomial dividing x^n - 1", cyclic,
                (_int("n", "length, 1..4096"),
                 FamilyArgument("generator_polynomial", "polynomial",
                                "g(x): 'x^3+x+1', octal '0o13' or binary '0b1011'")),
-               'cyclic 23 "x^11+x^9+x^7+x^6+x^5+x+1"'),
+               'cyclic 23 "x^11+x^9+x^7+x^6+x^5+x+1"', _cyclic_space),
         Family("double-circulant", "[2l, l] double circulant code [I | A], A circulant",
                double_circulant,
                (FamilyArgument("first_row", "bits", "first row of A, a 0/1 string"),),

@@ -21,12 +21,16 @@ from __future__ import annotations
 import math
 import re
 from collections.abc import Sequence
+from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 import numpy as np
 import numpy.typing as npt
 
-from .exceptions import ParameterError, ParseError
+from .exceptions import ParameterError, ParseError, check_int
+
+if TYPE_CHECKING:
+    from .code import Code
 
 
 class _LazyModule:
@@ -52,7 +56,8 @@ __all__ = [
     "galois", "parse_polynomial", "polynomial_to_octal", "berlekamp_factors",
     "factor_x_n_minus_1", "x_n_minus_1", "ascending", "PRIMITIVE_POLYNOMIALS", "FieldTables",
     "cyclotomic_coset", "order_of_two", "defining_set_of", "bch_bound",
-    "MAX_ROOT_FIELD_DEGREE", "is_prime", "gf2_mod", "gf2_gcd", "gf2_div",
+    "MAX_ROOT_FIELD_DEGREE", "GeneratorPolynomial", "generator_polynomials", "is_prime",
+    "gf2_mod", "gf2_gcd", "gf2_div",
 ]
 
 
@@ -368,3 +373,70 @@ def bch_bound(n: int, defining_set: npt.ArrayLike) -> int:
             continue
         best = max(best, _longest_cyclic_run(mask[(idx * s) % n]))
     return best + 1
+
+
+#: Longest length of :func:`generator_polynomials` (``gf2codes.families.MAX_LENGTH``).
+_MAX_LENGTH = 4096
+
+
+@dataclass(frozen=True)
+class GeneratorPolynomial:
+    """A divisor ``g`` of ``x^n - 1``: the generator polynomial of a cyclic code of length
+    ``n`` and dimension ``k = n - deg g``."""
+
+    polynomial: galois.Poly
+    n: int
+    k: int
+
+    @property
+    def octal(self) -> str:
+        """``g`` in octal notation (see :func:`polynomial_to_octal`)."""
+        return polynomial_to_octal(self.polynomial)
+
+    def build(self) -> Code:
+        """The cyclic code that ``g`` generates (see :func:`gf2codes.families.cyclic`)."""
+        from .families import cyclic  # the construction lives with the other families
+
+        return cyclic(self.n, self.polynomial)
+
+
+def generator_polynomials(n: int, *, limit: int = 65536) -> list[GeneratorPolynomial]:
+    """The generator polynomial of every nonzero cyclic code of length ``n``: every
+    divisor of ``x^n - 1`` except itself.
+
+    The divisors are the products of the irreducible factors of ``x^n - 1``
+    (with multiplicity when ``n`` is even); ``g = x^n - 1`` (the zero code) is
+    left out and ``g = 1`` (the whole space) included. Sorted by dimension
+    (largest first), then by the integer value of the polynomial.
+
+    Parameters
+    ----------
+    n : int
+        Length, ``1 <= n <= 4096``.
+    limit : int
+        Refuse (``ParameterError``) when there would be more codes than this.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 7 section 5.
+
+    >>> [(g.octal, g.k) for g in generator_polynomials(7)]
+    [('0o1', 7), ('0o3', 6), ('0o13', 4), ('0o15', 4), ('0o27', 3), ('0o35', 3), ('0o177', 1)]
+    """
+    n = check_int("n", n, minimum=1, maximum=_MAX_LENGTH)
+    factors, mults = factor_x_n_minus_1(n)
+    count = math.prod(e + 1 for e in mults) - 1
+    if count > limit:
+        raise ParameterError(
+            f"x^{n} - 1 has {count} proper divisors, more than the limit {limit}; "
+            "raise 'limit' to list them all."
+        )
+    divisors = [galois.Poly.One()]
+    for f, e in zip(factors, mults, strict=True):
+        powers = [galois.Poly.One()]
+        for _ in range(e):
+            powers.append(powers[-1] * f)
+        divisors = [d * q for d in divisors for q in powers]
+    out = [GeneratorPolynomial(d, n, n - d.degree) for d in divisors if d.degree < n]
+    out.sort(key=lambda g: (-g.k, int(g.polynomial)))
+    return out
