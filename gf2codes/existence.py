@@ -74,9 +74,10 @@ import math
 import time
 from collections.abc import Callable
 from dataclasses import dataclass
-from typing import Literal
 
+from ._util import past
 from .exceptions import ParameterError, check_int
+from .typing import ExistenceStatus
 
 __all__ = ["ExistenceDecision", "decide_existence", "MAX_REDUNDANCY", "DEFAULT_NODE_BUDGET"]
 
@@ -85,7 +86,8 @@ MAX_REDUNDANCY = 62
 #: Nodes visited before a decision gives up (undecided) when no budget is given.
 DEFAULT_NODE_BUDGET = 2_000_000
 
-Status = Literal["exists", "none", "undecided"]
+#: The answer of a decision (:data:`gf2codes.typing.ExistenceStatus`).
+Status = ExistenceStatus
 
 #: ``progress(nodes, info)``: called about five times a second during a long decision,
 #: with ``info["note"]`` a one-line status.
@@ -300,9 +302,9 @@ def _decide_compiled(n: int, k: int, d: int, max_nodes: int | None, time_limit: 
                                          time.perf_counter() - start, "finished")
             if nodes >= budget:
                 return undecided("node budget", nodes)
-            now = time.perf_counter()
-            if deadline is not None and now >= deadline:
+            if past(deadline):
                 return undecided("time limit", nodes)
+            now = time.perf_counter()
             if progress is not None and now >= next_report:
                 next_report = now + 0.2
                 progress(nodes, {"note": f"[{n},{k},{d}]: {nodes:,} nodes, depth "
@@ -335,9 +337,9 @@ class _Backtrack:
             self.nodes = self.max_nodes
             raise _Stop("node budget")
         if self.nodes & 255 == 0:
-            now = time.perf_counter()
-            if self.deadline is not None and now >= self.deadline:
+            if past(self.deadline):
                 raise _Stop("time limit")
+            now = time.perf_counter()
             if self.progress is not None and now >= self.next_report:
                 self.next_report = now + 0.2
                 self.progress(self.nodes, {

@@ -49,72 +49,45 @@ from __future__ import annotations
 
 import math
 import re
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Container, Iterable, Iterator, Sequence
 from dataclasses import dataclass, field
 from itertools import combinations
-from typing import TYPE_CHECKING, Any, cast
+from typing import Any, cast
 
 import numpy as np
 import numpy.typing as npt
 
 from . import linalg
 from .code import Code
-from .exceptions import ParameterError, ParseError, check_int
-
-
-class _LazyModule:
-    """``galois`` imported on first use: it takes most of a second, and most commands
-    that import this module never build a polynomial."""
-
-    def __init__(self, name: str) -> None:
-        self._name = name
-
-    def __getattr__(self, attr: str) -> Any:
-        import importlib
-
-        return getattr(importlib.import_module(self._name), attr)
-
-
-if TYPE_CHECKING:  # pragma: no cover
-    import galois
-else:
-    galois = _LazyModule("galois")
+from .exceptions import ParameterError, check_int
+from .polynomials import (
+    PRIMITIVE_POLYNOMIALS,
+    FieldTables,
+    GeneratorPolynomial,
+    ascending,
+    bch_bound,
+    berlekamp_factors,
+    cyclotomic_coset,
+    defining_set_of,
+    galois,
+    generator_polynomials,
+    is_prime,
+    parse_polynomial,
+    polynomial_to_octal,
+    x_n_minus_1,
+)
 
 __all__ = [
-    "MAX_LENGTH",
-    "berlekamp_factors",
-    "repetition",
-    "even_weight",
-    "hamming",
-    "extended_hamming",
-    "simplex",
-    "reed_muller",
-    "golay",
-    "extended_golay",
-    "bch",
-    "quadratic_residue",
-    "cyclic",
-    "generator_polynomials",
-    "GeneratorPolynomial",
-    "quasi_cyclic",
-    "double_circulant",
-    "from_rows",
-    "parse_polynomial",
-    "GOLAY_POLYNOMIAL",
-    "PRIMITIVE_POLYNOMIALS",
-    "polynomial_to_octal",
-    "bch_bound",
-    "FamilyArgument",
-    "Family",
-    "FAMILIES",
+    "MAX_LENGTH", "berlekamp_factors", "repetition", "even_weight", "hamming",
+    "extended_hamming", "simplex", "reed_muller", "golay", "extended_golay", "bch",
+    "quadratic_residue", "cyclic", "generator_polynomials", "GeneratorPolynomial",
+    "quasi_cyclic", "double_circulant", "from_rows", "parse_polynomial", "GOLAY_POLYNOMIAL",
+    "PRIMITIVE_POLYNOMIALS", "polynomial_to_octal", "bch_bound", "FamilyArgument", "Family",
+    "FAMILIES", "construction_note",
 ]
 
 #: Longest code the families build (a generator matrix of at most about 2^24 bits).
 MAX_LENGTH = 4096
-
-#: Largest extension degree used to find the roots of a cyclic code for the BCH bound.
-_MAX_ROOT_FIELD_DEGREE = 16
-
 
 
 # ----------------------------------------------------------------- helpers
@@ -149,238 +122,18 @@ def _check_length(name: str, n: int) -> None:
         )
 
 
-def _x_n_minus_1(n: int) -> galois.Poly:
-    return galois.Poly.Degrees([n, 0])
-
-
-def _ascending(poly: galois.Poly, n: int) -> np.ndarray:
-    """Coefficients ``c_0 .. c_{n-1}`` of ``poly`` (degree below ``n``)."""
-    out = np.zeros(n, dtype=np.uint8)
-    c = np.asarray(poly.coeffs, dtype=np.uint8)[::-1]
-    out[: c.size] = c
-    return out
-
-
-def _is_prime(p: int) -> bool:
-    if p < 2:
-        return False
-    return all(p % q for q in range(2, math.isqrt(p) + 1))
-
-
-def _order_of_two(n: int) -> int:
-    """Multiplicative order of 2 modulo odd ``n > 1``."""
-    m, x = 1, 2 % n
-    while x != 1:
-        x = (2 * x) % n
-        m += 1
-    return m
-
-
-def _cyclotomic_coset(s: int, n: int) -> list[int]:
-    coset, x = [], s % n
-    while x not in coset:
-        coset.append(x)
-        x = (2 * x) % n
-    return coset
-
-
-# -------------------------------------------------------------- polynomials
-_TERM = re.compile(r"^(?:(1)|x(?:(?:\^|\*\*)(\d+))?)$")
-
-
-def parse_polynomial(text: str | galois.Poly) -> galois.Poly:
-    """A polynomial over GF(2) from a ``galois.Poly`` or text (see the module notes).
-
-    Raises
-    ------
-    ParseError
-        If the text is in none of the three notations, or a term appears twice.
-
-    Examples
-    --------
-    >>> str(parse_polynomial("x^3 + x + 1"))
-    'x^3 + x + 1'
-    >>> str(parse_polynomial("0o13"))
-    'x^3 + x + 1'
-    >>> str(parse_polynomial("0b1011"))
-    'x^3 + x + 1'
-    """
-    if isinstance(text, galois.Poly):
-        if text.field is not galois.GF(2):
-            raise ParseError(f"<polynomial>: the polynomial must be over GF(2), not {text.field}.")
-        return text
-    if not isinstance(text, str):
-        raise ParseError(f"<polynomial>: expected a string or galois.Poly, not {text!r}.")
-    s = re.sub(r"\s", "", text)
-    low = s.lower()
-    try:
-        if low.startswith("0o"):
-            return galois.Poly.Int(int(low[2:], 8))
-        if low.startswith("0b"):
-            return galois.Poly.Int(int(low[2:], 2))
-    except ValueError:
-        raise ParseError(
-            f"<polynomial>: {text!r} is not a valid {'octal' if low[1] == 'o' else 'binary'} "
-            "number."
-        ) from None
-    if not s:
-        raise ParseError("<polynomial>: the polynomial is empty.")
-    degrees: set[int] = set()
-    for term in re.split(r"[+-]", s):
-        m = _TERM.match(term)
-        if not m:
-            raise ParseError(
-                f"<polynomial>: cannot read the term {term!r} of {text!r}; write terms like "
-                "x^5, x or 1 joined by +, or use octal 0o... or binary 0b..."
-            )
-        deg = 0 if m.group(1) else int(m.group(2) or 1)
-        if deg in degrees:
-            raise ParseError(f"<polynomial>: the term of degree {deg} appears twice in {text!r}.")
-        degrees.add(deg)
-    return galois.Poly.Degrees(sorted(degrees, reverse=True))
-
-
-def polynomial_to_octal(poly: galois.Poly) -> str:
-    """The octal notation ``0o...`` of a GF(2) polynomial (highest degree first).
-
-    >>> polynomial_to_octal(parse_polynomial("x^11+x^9+x^7+x^6+x^5+x+1"))
-    '0o5343'
-    """
-    return "0o" + format(int(poly), "o")
-
-
-def _longest_cyclic_run(mask: np.ndarray) -> int:
-    """Longest run of ``True`` in a cyclic boolean sequence that is not all ``True``."""
-    if not mask.any():
-        return 0
-    start = int(np.flatnonzero(~mask)[0])
-    seq = np.concatenate([[False], np.roll(mask, -start), [False]]).astype(np.int8)
-    d = np.diff(seq)
-    return int((np.flatnonzero(d == -1) - np.flatnonzero(d == 1)).max())
-
-
-#: The lexicographically first primitive polynomial of each degree m, as an integer
-#: (bit i = coefficient of x^i); computed with ``galois.primitive_poly(2, m)`` and
-#: checked against it by tests/test_families.py.
-PRIMITIVE_POLYNOMIALS = {
-    2: 7, 3: 11, 4: 19, 5: 37, 6: 67, 7: 131, 8: 285, 9: 529, 10: 1033, 11: 2053,
-    12: 4179, 13: 8219, 14: 16427, 15: 32771, 16: 65581,
-}
-
-
-class _FieldTables:
-    """GF(2^m) by exponent and logarithm tables; ``alpha`` (the element 2) is primitive."""
-
-    def __init__(self, m: int) -> None:
-        q = 1 << m
-        poly = PRIMITIVE_POLYNOMIALS[m]
-        self.m, self.order = m, q - 1
-        exp = np.zeros(2 * (q - 1), dtype=np.int64)
-        log = np.zeros(q, dtype=np.int64)
-        x = 1
-        for i in range(q - 1):
-            exp[i] = x
-            log[x] = i
-            x <<= 1
-            if x & q:
-                x ^= poly
-        exp[q - 1:] = exp[: q - 1]
-        self.exp, self.log = exp, log
-
-    def mul(self, a: np.ndarray, b: np.ndarray) -> np.ndarray:
-        out = self.exp[self.log[a] + self.log[b]]
-        return np.where((a == 0) | (b == 0), 0, out)
-
-    def power(self, e: npt.ArrayLike) -> np.ndarray:
-        """``alpha^e`` for integer exponents."""
-        return self.exp[np.asarray(e, dtype=np.int64) % self.order]
-
-    def poly_from_roots(self, exponents: Sequence[int]) -> np.ndarray:
-        """Ascending coefficients of ``prod (x - alpha^e)``."""
-        c = np.array([1], dtype=np.int64)
-        for e in exponents:
-            root = int(self.power(e))
-            shifted = np.concatenate([[0], c])
-            scaled = np.concatenate([self.mul(c, np.full(c.size, root)), [0]])
-            c = shifted ^ scaled
-        return c
-
-    def evaluate(self, ascending: np.ndarray, points: np.ndarray) -> np.ndarray:
-        """Values of a GF(2) polynomial (ascending 0/1 coefficients) at field elements."""
-        val = np.zeros(points.size, dtype=np.int64)
-        for coeff in ascending[::-1]:
-            val = self.mul(val, points) ^ int(coeff)
-        return val
-
-
-def _defining_set(n: int, g: galois.Poly) -> np.ndarray | None:
-    """Mask of the exponents ``i`` with ``g(beta^i) = 0`` for a primitive n-th root beta.
-
-    None when ``n`` is even (repeated roots) or the splitting field is too large.
-    """
-    if n % 2 == 0:
-        return None
-    if n == 1:
-        return np.array([g.degree > 0])
-    m = _order_of_two(n)
-    if m > _MAX_ROOT_FIELD_DEGREE:
-        return None
-    field_ = _FieldTables(m)
-    beta_powers = field_.power(np.arange(n) * (field_.order // n))
-    values = field_.evaluate(_ascending(g, n), beta_powers)
-    return values == 0
-
-
-def bch_bound(n: int, defining_set: npt.ArrayLike) -> int:
-    """The BCH bound of a cyclic code from its defining set.
-
-    If ``g(beta^(b + i s)) = 0`` for ``i = 0 .. delta-2``, with ``beta`` a primitive
-    n-th root of unity and ``gcd(s, n) = 1``, then ``d >= delta`` ([1]_ ch. 7
-    Theorem 8; [2]_ Theorem 5.1.1). This returns the largest such ``delta`` over
-    all starts ``b`` and strides ``s``.
-
-    Parameters
-    ----------
-    n : int
-        Length (odd).
-    defining_set : array_like
-        The exponents ``i`` (``0 <= i < n``) with ``g(beta^i) = 0``, or a boolean
-        mask of length ``n``.
-
-    Examples
-    --------
-    >>> bch_bound(7, [1, 2, 4])       # the [7, 4] Hamming code
-    3
-    """
-    mask = np.zeros(n, dtype=bool)
-    arr = np.asarray(defining_set)
-    if arr.dtype == bool:
-        mask[:] = arr
-    else:
-        mask[arr.astype(np.int64) % n] = True
-    if mask.all():
-        raise ParameterError("The defining set holds every exponent: the code is {0}.")
-    best = 0
-    idx = np.arange(n)
-    for s in range(1, n if n > 1 else 2):
-        if math.gcd(s, n) != 1:
-            continue
-        best = max(best, _longest_cyclic_run(mask[(idx * s) % n]))
-    return best + 1
-
-
 def _cyclic_code(n: int, g: galois.Poly, *, name: str, recipe: dict[str, Any],
                  d_lower: int | None = None, d_upper: int | None = None,
                  defining_set: np.ndarray | None = None) -> Code:
     """The cyclic code generated by ``g`` (which divides ``x^n - 1``)."""
     k = n - g.degree
-    coeffs = _ascending(g, n)
+    coeffs = ascending(g, n)
     G = np.zeros((k, n), dtype=np.uint8)
     for i in range(k):
         G[i] = np.roll(coeffs, i)
     weight = int(coeffs.sum())  # every row is a shift of g: a codeword of this weight
     if defining_set is None:
-        defining_set = _defining_set(n, g)
+        defining_set = defining_set_of(n, g)
     lower = bch_bound(n, defining_set) if defining_set is not None else None
     lows = [x for x in (d_lower, lower) if x is not None]
     lo = max(lows) if lows else None
@@ -617,14 +370,14 @@ def bch(n: int, designed: int, *, b: int = 1) -> Code:
     mask = np.zeros(n, dtype=bool)
     for e in range(b, b + designed - 1):
         if not mask[e % n]:
-            mask[_cyclotomic_coset(e, n)] = True
+            mask[cyclotomic_coset(e, n)] = True
     k = n - int(mask.sum())
     if k == 0:
         raise ParameterError(
             f"The roots alpha^{b} .. alpha^{b + designed - 2} cover every exponent modulo {n}: "
             f"the BCH code is {{0}}; choose a smaller 'designed' (at most {n - 1})."
         )
-    coeffs = _FieldTables(m).poly_from_roots(np.flatnonzero(mask).tolist())
+    coeffs = FieldTables(m).poly_from_roots(np.flatnonzero(mask).tolist())
     if ((coeffs != 0) & (coeffs != 1)).any():  # pragma: no cover - closed under squaring
         raise AssertionError("BCH generator polynomial has coefficients outside GF(2)")
     g = galois.Poly(coeffs[::-1].astype(np.int64))
@@ -670,15 +423,15 @@ def quadratic_residue(p: int) -> Code:
     (23, 12, 7, 7)
     """
     p = check_int("p", p, minimum=7, maximum=MAX_LENGTH)
-    if not _is_prime(p) or p % 8 not in (1, 7):
+    if not is_prime(p) or p % 8 not in (1, 7):
         raise ParameterError(
             f"Argument 'p' must be a prime congruent to 1 or 7 modulo 8 (7, 17, 23, 31, 41, 47, "
             f"71, 73, ...), not {p}"
-            + (" (it is not prime)." if not _is_prime(p) else f" (it is {p % 8} modulo 8).")
+            + (" (it is not prime)." if not is_prime(p) else f" (it is {p % 8} modulo 8).")
         )
     squares = sorted({(i * i) % p for i in range(1, p)})
     e = galois.Poly.Degrees(sorted(squares, reverse=True))
-    g = galois.gcd(e, _x_n_minus_1(p))
+    g = galois.gcd(e, x_n_minus_1(p))
     if p % 8 == 1:
         g = g // galois.Poly([1, 1])
     if g.degree != (p - 1) // 2:  # pragma: no cover - guards the theory above
@@ -723,7 +476,7 @@ def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
     """
     n = check_int("n", n, minimum=1, maximum=MAX_LENGTH)
     g = parse_polynomial(generator_polynomial)
-    if g == 0 or _x_n_minus_1(n) % g != 0:
+    if g == 0 or x_n_minus_1(n) % g != 0:
         raise ParameterError(
             f"Argument 'generator_polynomial' must divide x^{n} - 1, and {g} does not; "
             f"gf2codes.families.generator_polynomials({n}) lists the divisors."
@@ -735,154 +488,6 @@ def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
     octal = polynomial_to_octal(g)
     return _cyclic_code(n, g, name=f"cyclic [{n},{n - g.degree}] g = {octal}",
                         recipe={"family": "cyclic", "n": n, "generator_polynomial": octal})
-
-
-@dataclass(frozen=True)
-class GeneratorPolynomial:
-    """A divisor ``g`` of ``x^n - 1``: the generator polynomial of a cyclic code of length
-    ``n`` and dimension ``k = n - deg g``."""
-
-    polynomial: galois.Poly
-    n: int
-    k: int
-
-    @property
-    def octal(self) -> str:
-        """``g`` in octal notation (see :func:`polynomial_to_octal`)."""
-        return polynomial_to_octal(self.polynomial)
-
-    def build(self) -> Code:
-        """The cyclic code that ``g`` generates (see :func:`cyclic`)."""
-        return cyclic(self.n, self.polynomial)
-
-
-def _gf2_mod(a: int, f: int) -> int:
-    """``a mod f`` for polynomials over GF(2) held as integers (bit i = coefficient of x^i)."""
-    df = f.bit_length()
-    while a.bit_length() >= df:
-        a ^= f << (a.bit_length() - df)
-    return a
-
-
-def _gf2_gcd(a: int, b: int) -> int:
-    while b:
-        a, b = b, _gf2_mod(a, b)
-    return a
-
-
-def berlekamp_factors(f: int) -> list[int]:
-    """The irreducible factors of a squarefree polynomial ``f`` over GF(2), deterministically.
-
-    Polynomials are integers (bit i = coefficient of x^i). Berlekamp's algorithm: the
-    polynomials ``v`` with ``v^2 = v (mod f)`` form a GF(2)-space whose dimension is the
-    number of irreducible factors, and gcds of ``f`` with ``v`` and ``v + 1`` separate
-    every pair of factors.
-
-    References
-    ----------
-    .. [1] E. R. Berlekamp, "Factoring polynomials over finite fields", Bell System
-       Technical Journal 46 (1967) 1853-1859.
-
-    >>> sorted(berlekamp_factors(0b10000001))  # x^7 + 1 = (x + 1)(x^3 + x + 1)(x^3 + x^2 + 1)
-    [3, 11, 13]
-    """
-    from .linalg import null_space
-
-    deg = f.bit_length() - 1
-    if deg <= 1:
-        return [f]
-    # Row i of Q - I: the coefficients of x^(2i) mod f, minus x^i.
-    M = np.zeros((deg, deg), dtype=np.uint8)
-    cur = 1
-    for i in range(deg):
-        row = cur ^ (1 << i)
-        M[i] = [(row >> j) & 1 for j in range(deg)]
-        cur = _gf2_mod(cur << 2, f)
-    basis = null_space(np.ascontiguousarray(M.T))  # v with v (Q - I) = 0
-    count = basis.shape[0]
-    factors = [f]
-    for vec in basis:
-        if len(factors) == count:
-            break
-        v = sum(1 << j for j in np.flatnonzero(vec).tolist())
-        if v <= 1:
-            continue
-        split = []
-        for h in factors:
-            a = _gf2_gcd(h, _gf2_mod(v, h))
-            if a > 1 and a.bit_length() < h.bit_length():  # a proper factor
-                split += [a, _gf2_div(h, a)]
-            else:
-                split.append(h)
-        factors = split
-    return factors
-
-
-def _gf2_div(a: int, b: int) -> int:
-    """Exact quotient ``a / b`` over GF(2)."""
-    q, db = 0, b.bit_length()
-    while a.bit_length() >= db:
-        shift = a.bit_length() - db
-        q ^= 1 << shift
-        a ^= b << shift
-    if a:  # pragma: no cover - callers divide by true factors only
-        raise AssertionError("polynomial division left a remainder")
-    return q
-
-
-def _factor_x_n_minus_1(n: int) -> tuple[list[galois.Poly], list[int]]:
-    """Irreducible factors of ``x^n - 1`` over GF(2) with their multiplicities.
-
-    ``x^n - 1 = (x^m - 1)^(2^a)`` for ``n = 2^a m`` with ``m`` odd, and ``x^m - 1`` is
-    squarefree; it is factored by :func:`berlekamp_factors` (deterministic; a
-    randomised factoring routine was seen to give up on some lengths, e.g. 75 and 117).
-    """
-    a = (n & -n).bit_length() - 1
-    m = n >> a
-    irreducible = sorted(berlekamp_factors((1 << m) | 1))
-    return ([galois.Poly.Int(f) for f in irreducible], [1 << a] * len(irreducible))
-
-
-def generator_polynomials(n: int, *, limit: int = 65536) -> list[GeneratorPolynomial]:
-    """The generator polynomial of every nonzero cyclic code of length ``n``: every
-    divisor of ``x^n - 1`` except itself.
-
-    The divisors are the products of the irreducible factors of ``x^n - 1``
-    (with multiplicity when ``n`` is even); ``g = x^n - 1`` (the zero code) is
-    left out and ``g = 1`` (the whole space) included. Sorted by dimension
-    (largest first), then by the integer value of the polynomial.
-
-    Parameters
-    ----------
-    n : int
-        Length, ``1 <= n <= 4096``.
-    limit : int
-        Refuse (``ParameterError``) when there would be more codes than this.
-
-    References
-    ----------
-    .. [1] MacWilliams & Sloane (1977), ch. 7 section 5.
-
-    >>> [(g.octal, g.k) for g in generator_polynomials(7)]
-    [('0o1', 7), ('0o3', 6), ('0o13', 4), ('0o15', 4), ('0o27', 3), ('0o35', 3), ('0o177', 1)]
-    """
-    n = check_int("n", n, minimum=1, maximum=MAX_LENGTH)
-    factors, mults = _factor_x_n_minus_1(n)
-    count = math.prod(e + 1 for e in mults) - 1
-    if count > limit:
-        raise ParameterError(
-            f"x^{n} - 1 has {count} proper divisors, more than the limit {limit}; "
-            "raise 'limit' to list them all."
-        )
-    divisors = [galois.Poly.One()]
-    for f, e in zip(factors, mults, strict=True):
-        powers = [galois.Poly.One()]
-        for _ in range(e):
-            powers.append(powers[-1] * f)
-        divisors = [d * q for d in divisors for q in powers]
-    out = [GeneratorPolynomial(d, n, n - d.degree) for d in divisors if d.degree < n]
-    out.sort(key=lambda g: (-g.k, int(g.polynomial)))
-    return out
 
 
 def quasi_cyclic(rows: Sequence[str] | npt.ArrayLike, m: int) -> Code:
@@ -1018,18 +623,123 @@ class FamilyArgument:
     default: Any = None
 
 
+#: ``space(max_length, wanted)``: the argument dicts of a family's members of length at
+#: most ``max_length`` whose length passes ``wanted``, in the family's order.
+Space = Callable[[int, Callable[[int], bool]], Iterator[dict[str, Any]]]
+
+
 @dataclass(frozen=True)
 class Family:
-    """A named construction: what it is, its arguments, and the function that builds it."""
+    """A named construction: what it is, its arguments, and the function that builds it.
+
+    ``space`` declares the family's parameter space once (see :meth:`instances`);
+    ``parameters(**kwargs)`` gives the proved ``(n, k, d_lower)`` of a member without
+    building it, where a formula does; ``describe(step)`` explains what a one-step
+    recipe of the family proves about d (shown by ``gf2codes build``).
+    """
 
     name: str
     description: str
     builder: Callable[..., Code]
     arguments: tuple[FamilyArgument, ...] = field(default=())
     example: str = ""
+    space: Space | None = None
+    parameters: Callable[..., tuple[int, int, int]] | None = None
+    describe: Callable[[dict[str, Any]], str] | None = None
 
     def build(self, **kwargs: Any) -> Code:
         return self.builder(**kwargs)
+
+    def instances(self, max_length: int,
+                  lengths: Container[int] | None = None) -> Iterator[dict[str, Any]]:
+        """The keyword arguments of every member of length at most ``max_length`` (and in
+        ``lengths``, if given), in the family's order; nothing for a family without a
+        parameter space (``matrix``, ``double-circulant``, ``quasi-cyclic``).
+
+        >>> list(FAMILIES["hamming"].instances(15))
+        [{'m': 2}, {'m': 3}, {'m': 4}]
+        """
+        if self.space is None:
+            return iter(())
+        return self.space(max_length, (lambda n: True) if lengths is None
+                          else (lambda n: n in lengths))
+
+
+def construction_note(code: Code) -> str | None:
+    """What the family of a one-step recipe says about d beyond the claimed bounds (the
+    BCH designed distance), or None."""
+    first = code.recipe[0] if len(code.recipe) == 1 else {}
+    family = FAMILIES.get(str(first.get("family")))
+    return family.describe(first) if family is not None and family.describe else None
+
+
+# ------------------------------------------------------------ parameter spaces
+def _by_length(lengths: Iterable[int], max_length: int, wanted: Callable[[int], bool],
+               args: Callable[[int], Iterable[dict[str, Any]]]) -> Iterator[dict[str, Any]]:
+    for n in lengths:
+        if n > max_length:
+            return
+        if wanted(n):
+            yield from args(n)
+
+
+def _m_space(length: Callable[[int], int], first_m: int = 2) -> Space:
+    """Members ``{"m": m}`` for ``m = first_m .. 12`` of length ``length(m)``."""
+    def space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+        for m in range(first_m, 13):
+            if length(m) > max_length:
+                return
+            if wanted(length(m)):
+                yield {"m": m}
+    return space
+
+
+def _reed_muller_space(max_length: int, wanted: Callable[[int], bool]
+                       ) -> Iterator[dict[str, Any]]:
+    for m in range(1, 13):
+        if 2**m > max_length:
+            return
+        if wanted(2**m):
+            yield from ({"r": r, "m": m} for r in range(m + 1))
+
+
+def _fixed(n: int) -> Space:
+    def space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+        if n <= max_length and wanted(n):
+            yield {}
+    return space
+
+
+def _bch_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+    yield from _by_length((2**m - 1 for m in range(2, 13)), max_length, wanted,
+                          lambda n: ({"n": n, "designed": e, "b": 1} for e in range(2, n + 1)))
+
+
+def _cyclic_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+    yield from _by_length(range(1, MAX_LENGTH + 1), max_length, wanted, lambda n: (
+        {"n": n, "generator_polynomial": g.octal} for g in generator_polynomials(n)))
+
+
+def _length_space(first: int) -> Space:
+    def space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+        yield from _by_length(range(first, MAX_LENGTH + 1), max_length, wanted,
+                              lambda n: ({"n": n},))
+    return space
+
+
+def _qr_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[str, Any]]:
+    yield from _by_length(range(7, MAX_LENGTH + 1), max_length, wanted,
+                          lambda p: ({"p": p},) if is_prime(p) and p % 8 in (1, 7) else ())
+
+
+def _rm_parameters(r: int, m: int) -> tuple[int, int, int]:
+    return 2**m, sum(math.comb(m, i) for i in range(r + 1)), 2 ** (m - r)
+
+
+def _bch_note(step: dict[str, Any]) -> str:
+    return (f"designed distance δ = {step['designed']}; the lower bound is the BCH "
+            "bound (d ≥ δ, or more when the roots run on), the upper bound the weight "
+            "of the generator polynomial")
 
 
 def _int(name: str, help_: str, **kw: Any) -> FamilyArgument:
@@ -1041,34 +751,41 @@ FAMILIES: dict[str, Family] = {
     f.name: f
     for f in [
         Family("repetition", "[n, 1, n] repetition code", repetition,
-               (_int("n", "length"),), "repetition 5"),
+               (_int("n", "length"),), "repetition 5", _length_space(1),
+               lambda n: (n, 1, n)),
         Family("even-weight", "[n, n-1, 2] single parity check code", even_weight,
-               (_int("n", "length, 2..4096"),), "even-weight 8"),
+               (_int("n", "length, 2..4096"),), "even-weight 8", _length_space(2),
+               lambda n: (n, n - 1, 2)),
         Family("hamming", "[2^m-1, 2^m-1-m, 3] Hamming code", hamming,
-               (_int("m", "redundancy, 2..12"),), "hamming 3"),
+               (_int("m", "redundancy, 2..12"),), "hamming 3", _m_space(lambda m: 2**m - 1),
+               lambda m: (2**m - 1, 2**m - 1 - m, 3)),
         Family("extended-hamming", "[2^m, 2^m-1-m, 4] extended Hamming code",
-               extended_hamming, (_int("m", "2..12"),), "extended-hamming 7"),
+               extended_hamming, (_int("m", "2..12"),), "extended-hamming 7",
+               _m_space(lambda m: 2**m), lambda m: (2**m, 2**m - 1 - m, 4)),
         Family("simplex", "[2^m-1, m, 2^(m-1)] simplex code (dual of Hamming)", simplex,
-               (_int("m", "2..12"),), "simplex 4"),
+               (_int("m", "2..12"),), "simplex 4", _m_space(lambda m: 2**m - 1),
+               lambda m: (2**m - 1, m, 2 ** (m - 1))),
         Family("reed-muller", "[2^m, sum_{i<=r} C(m,i), 2^(m-r)] Reed-Muller code RM(r, m)",
                reed_muller, (_int("r", "order, 0..m"), _int("m", "1..12")),
-               "reed-muller 2 6"),
-        Family("golay", "[23, 12, 7] binary Golay code", golay, (), "golay"),
+               "reed-muller 2 6", _reed_muller_space, _rm_parameters),
+        Family("golay", "[23, 12, 7] binary Golay code", golay, (), "golay", _fixed(23),
+               lambda: (23, 12, 7)),
         Family("extended-golay", "[24, 12, 8] extended binary Golay code", extended_golay,
-               (), "extended-golay"),
+               (), "extended-golay", _fixed(24), lambda: (24, 12, 8)),
         Family("bch", "primitive BCH code, length 2^m-1, designed distance δ (d ≥ δ)", bch,
                (_int("n", "length 2^m-1, 3..4095"),
                 _int("designed", "designed distance δ, 2..n", option=True),
                 _int("b", "first root exponent (1 = narrow sense), 0..n-1", option=True,
                      required=False, default=1)),
-               "bch 63 --designed 11"),
+               "bch 63 --designed 11", _bch_space, describe=_bch_note),
         Family("qr", "[p, (p+1)/2] quadratic-residue code, p prime ≡ ±1 mod 8",
-               quadratic_residue, (_int("p", "prime ≡ ±1 mod 8, 7..4096"),), "qr 47"),
+               quadratic_residue, (_int("p", "prime ≡ ±1 mod 8, 7..4096"),), "qr 47",
+               _qr_space),
         Family("cyclic", "cyclic code from a generator polynomial dividing x^n - 1", cyclic,
                (_int("n", "length, 1..4096"),
                 FamilyArgument("generator_polynomial", "polynomial",
                                "g(x): 'x^3+x+1', octal '0o13' or binary '0b1011'")),
-               'cyclic 23 "x^11+x^9+x^7+x^6+x^5+x+1"'),
+               'cyclic 23 "x^11+x^9+x^7+x^6+x^5+x+1"', _cyclic_space),
         Family("double-circulant", "[2l, l] double circulant code [I | A], A circulant",
                double_circulant,
                (FamilyArgument("first_row", "bits", "first row of A, a 0/1 string"),),

@@ -261,13 +261,6 @@ def catalog_points(k: int, n_values: Sequence[int], *,
             for e in entries if e.n in wanted]
 
 
-_BOUND_TITLES = {
-    "singleton": "Singleton", "hamming": "Hamming", "plotkin": "Plotkin",
-    "griesmer": "Griesmer", "elias": "Elias–Bassalygo", "lp": "Delsarte LP",
-    "gilbert_varshamov": "Gilbert–Varshamov", "varshamov": "Varshamov",
-}
-
-
 def bounds_figure(k: int, n_values: Sequence[int], *, mark: Sequence[tuple[int, int]] = (),
                   mark_label: str = "this code",
                   known: Sequence[tuple[int, int, str]] | None = None,
@@ -308,11 +301,11 @@ def bounds_figure(k: int, n_values: Sequence[int], *, mark: Sequence[tuple[int, 
     names = list(next(iter(uppers.values())))
     for i, name in enumerate(names):
         ax.step(ns, [uppers[n][name] for n in ns], where="mid", lw=1, alpha=0.7,
-                color=f"C{(i + 2) % 10}", label=_BOUND_TITLES.get(name, name) + " bound")
+                color=f"C{(i + 2) % 10}", label=B.title(name) + " bound")
     ax.step(ns, best, where="mid", lw=2.4, color="C3", label="best upper bound")
     for i, name in enumerate(next(iter(lowers.values()))):
         ax.step(ns, [lowers[n][name] for n in ns], where="mid", lw=1.3, ls="--",
-                color=["C0", "C9"][i % 2], label=_BOUND_TITLES.get(name, name) + " (exists)")
+                color=["C0", "C9"][i % 2], label=B.title(name) + " (exists)")
     guaranteed = [max(lowers[n].values()) for n in ns]
     ax.fill_between(ns, guaranteed, best, step="mid", color="C3", alpha=0.08,
                     label="open: between existence and upper bounds")

@@ -18,7 +18,7 @@ if TYPE_CHECKING:  # numpy is not imported at run time: `gf2codes --help` needs 
 
 __all__ = [
     "Question", "QUESTIONS", "DistanceMethod", "DISTANCE_METHODS", "StopReason",
-    "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "SeedLike",
+    "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "SeedLike", "BoundKind",
 ]
 
 #: What a search optimises with the other two of n, k, d fixed: the shortest ``length``
@@ -51,3 +51,7 @@ Side = Literal["code", "dual"]
 
 #: A seed for the random functions: an int >= 0, a numpy Generator, or None (fresh).
 SeedLike = Union[int, "np.random.Generator", None]
+
+#: Whether a bound is a theorem (``upper``: no code beyond it) or a construction
+#: (``existence``: a code at least this good).
+BoundKind = Literal["upper", "existence"]

@@ -108,41 +108,50 @@ class Pool:
         return rebuild(recipe_of(base) + steps) if steps else base
 
 
+def _members(name: str, max_length: int, lengths=None):
+    """The codes of one family's parameter space (``Family.instances``), in its order."""
+    family = F.FAMILIES[name]
+    for kw in family.instances(max_length, lengths):
+        yield kw, (lambda kw=kw: family.build(**kw))
+
+
 def families(pool: Pool, log) -> None:
     for n in range(1, N_MAX + 1):
-        pool.offer(F.repetition(n), "family")
-        if n >= 2:
-            pool.offer(F.even_weight(n), "family")
+        for name in ("repetition", "even-weight"):
+            for _, build in _members(name, N_MAX, {n}):
+                pool.offer(build(), "family")
         pool.offer(F.from_rows(np.eye(n, dtype=np.uint8)), "family")
-    for m in range(2, 7):
-        for build in (F.hamming, F.extended_hamming, F.simplex):
-            pool.offer(build(m), "family")
-    for m in range(2, 8):
-        for r in range(0, m + 1):
-            pool.offer(F.reed_muller(r, m), "family")
-    pool.offer(F.golay(), "family")
-    pool.offer(F.extended_golay(), "family")
-    for p in (7, 17, 23, 31, 41, 47):
-        pool.offer(F.quadratic_residue(p), "family")
+    trio = [list(_members(name, N_MAX)) for name in ("hamming", "extended-hamming", "simplex")]
+    for group in zip(*trio, strict=True):  # for each m: Hamming, extended Hamming, simplex
+        for _, build in group:
+            pool.offer(build(), "family")
+    for _, build in _members("reed-muller", 2 * N_MAX, range(4, 2 * N_MAX + 1)):
+        pool.offer(build(), "family")  # m = 2 .. 7
+    for name in ("golay", "extended-golay"):
+        for _, build in _members(name, N_MAX):
+            pool.offer(build(), "family")
+    for _, build in _members("qr", 47):
+        pool.offer(build(), "family")
     log(f"named families: {len(pool.items)} candidates")
-    for n in [*range(3, 62, 2), 65]:
-        for c in F.generator_polynomials(n):
-            if 0 < c.k < n:
-                pool.offer(c.build(), "family", time_limit=3.0)
+    for kw, build in _members("cyclic", 65, {*range(3, 62, 2), 65}):
+        if kw["generator_polynomial"] != "0o1":  # g = 1: the whole space, offered above
+            pool.offer(build(), "family", time_limit=3.0)
     log(f"cyclic codes: {len(pool.items)} candidates")
-    for n in (63, 127):
-        seen_k = set()
-        for delta in range(3, n // 2 if n == 127 else n):
-            try:
-                code = F.bch(n, delta)
-            except Exception:  # noqa: BLE001 - the roots cover everything: no code
-                continue
-            if code.k in seen_k or code.k < 1:
-                continue
-            seen_k.add(code.k)
-            if n == 127 and code.n - code.k > 36:  # only the high-rate ones pay here
-                continue
-            pool.offer(code, "family", time_limit=10.0)
+    seen_k: dict[int, set[int]] = {63: set(), 127: set()}
+    for kw, build in _members("bch", 127, {63, 127}):
+        n, delta = kw["n"], kw["designed"]
+        if not 3 <= delta < (n // 2 if n == 127 else n):
+            continue
+        try:
+            code = build()
+        except Exception:  # noqa: BLE001 - the roots cover everything: no code
+            continue
+        if code.k in seen_k[n] or code.k < 1:
+            continue
+        seen_k[n].add(code.k)
+        if n == 127 and code.n - code.k > 36:  # only the high-rate ones pay here
+            continue
+        pool.offer(code, "family", time_limit=10.0)
     log(f"BCH codes: {len(pool.items)} candidates")
 
 

@@ -9,11 +9,7 @@ the "no better code" half rests on the book.
 
 from __future__ import annotations
 
-import json
 import math
-import os
-import subprocess
-import sys
 from pathlib import Path
 
 import pytest
@@ -21,6 +17,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from gf2codes import bounds as B
+from gf2codes.bounds.formulas import plotkin_size
+from gf2codes.bounds.lp import krawtchouk_table
 from gf2codes.exceptions import ParameterError
 
 REPO = Path(__file__).resolve().parents[1]
@@ -194,7 +192,7 @@ def test_lp_and_hamming_beat_griesmer_at_31_16():
 def test_krawtchouk_exact():
     # definition K_j(i) = sum_s (-1)^s C(i, s) C(n-i, j-s) (MS77 ch. 5 §7)
     for n in (1, 2, 7, 24, 25):
-        K = B._krawtchouk(n)
+        K = krawtchouk_table(n)
         for j in range(n // 2 + 1):
             for i in range(0, n + 1, 2):
                 ref = sum((-1) ** s * math.comb(i, s) * math.comb(n - i, j - s)
@@ -248,13 +246,13 @@ def test_plotkin_range_of_validity():
     for d in range(1, 30):
         top = 2 * d if d % 2 == 0 else 2 * d + 1
         for n in range(1, 70):
-            size = B._plotkin_size(n, d)
+            size = plotkin_size(n, d)
             assert (size is None) == (n < d or n > top), (n, d)
     # A(8,4) = 16, A(11,6) = 12, A(16,8) = 32: Plotkin is attained by Hadamard-type codes
     # (MS77 ch. 2 §3, table of A(n,d) in MS77 app. A; from memory)
-    assert B._plotkin_size(8, 4) == 16
-    assert B._plotkin_size(11, 6) == 12
-    assert B._plotkin_size(16, 8) == 32
+    assert plotkin_size(8, 4) == 16
+    assert plotkin_size(11, 6) == 12
+    assert plotkin_size(16, 8) == 32
     # beyond 2d the bound exists through shortening and stays valid:
     assert B.plotkin_bound(32, 6) >= 16  # RM(1,5)
     assert B.plotkin_bound(72, 64) >= 4
@@ -328,106 +326,6 @@ def test_public_surface():
     assert set(B.lower_bounds(10, 3)) == {"gilbert_varshamov", "varshamov"}
 
 
-# -------------------------------------------------------------------------------- CLI
-
-
-def test_cli_length_json(capsys):
-    from gf2codes.cli import main
-
-    assert main(["bounds", "--k", "12", "--d", "8", "--json"]) == 0
-    out = json.loads(capsys.readouterr().out)
-    assert out["best"]["n"] == 24  # extended Golay [24,12,8]; [23,12,8] impossible
-    assert out["best"]["ruled_out_by"] == ["hamming", "lp"]
-    assert set(out["upper"]) == {"singleton", "hamming", "plotkin", "griesmer", "elias", "lp"}
-    assert set(out["lower"]) == {"gilbert_varshamov", "varshamov"}
-    assert out["k"] == 12 and out["d"] == 8
-
-
-def test_cli_distance_json_and_text(capsys):
-    from gf2codes.cli import main
-
-    assert main(["bounds", "--n", "24", "--k", "12", "--json"]) == 0
-    out = json.loads(capsys.readouterr().out)
-    assert out["best"]["d"] == 8 and out["upper"]["lp"] == 8
-    assert main(["bounds", "--n", "24", "--k", "12"]) == 0
-    text = capsys.readouterr().out
-    assert "d <= 8" in text
-    assert main(["bounds", "--n", "24", "--d", "8", "--json"]) == 0
-    assert json.loads(capsys.readouterr().out)["best"]["k"] == 12
-
-
-def test_cli_table(capsys):
-    """Rows k, columns d; each cell the least length the upper bounds allow beside the
-    length an existence bound guarantees."""
-    from gf2codes.cli import main
-
-    assert main(["bounds", "--table", "--k", "1-6", "--d", "1-5", "--json"]) == 0
-    out = json.loads(capsys.readouterr().out)
-    assert out["k"] == [1, 6] and out["d"] == [1, 5] and len(out["cells"]) == 30
-    cells = {(c["k"], c["d"]): c for c in out["cells"]}
-    # [6, 4, 3] would need 2^4 (1 + 6) = 112 > 2^6 words (sphere packing): 7 is least,
-    # and the Hamming code [7, 4, 3] is guaranteed by Varshamov's bound (computed here).
-    assert 2**4 * (1 + 6) > 2**6 and 2**4 * (1 + 7) <= 2**7
-    assert cells[4, 3]["n_least"] == 7 == cells[4, 3]["n_exists"]
-    assert cells[1, 5]["n_least"] == 5 == cells[1, 5]["n_exists"]  # the repetition code
-    for (k, d), c in cells.items():
-        assert c["n_least"] == B.least_length(k, d).n
-        assert c["n_exists"] == B.existence_length(k, d).n >= c["n_least"]
-    assert main(["bounds", "--table", "--k", "4", "--d", "3-4"]) == 0
-    text = capsys.readouterr().out
-    assert "k=4" in text and "d=3" in text and "d=4" in text and "cells settled" in text
-
-
-def test_cli_table_piped_at_80_columns_shows_every_cell():
-    """A grid wider than 80 columns through a real pipe with COLUMNS=80: every label and
-    every cell is printed, nothing elided (0.1 elided cells and row labels into '…')."""
-    env = dict(os.environ, PYTHONPATH=str(REPO), COLUMNS="80")
-    proc = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--table", "--k",
-                           "1-20", "--d", "1-14"], capture_output=True, text=True, env=env,
-                          timeout=300)
-    assert proc.returncode == 0, proc.stderr
-    assert "…" not in proc.stdout
-    lines = proc.stdout.splitlines()
-    head = next(i for i, line in enumerate(lines) if line.lstrip().startswith("d="))
-    assert lines[head].split() == [f"d={d}" for d in range(1, 15)]
-    assert len(lines[head]) > 80
-    rows = lines[head + 1: head + 21]
-    assert [r.split()[0] for r in rows] == [f"k={k}" for k in range(1, 21)]
-    for k, row in enumerate(rows, start=1):
-        for d, cell in enumerate(row.split()[1:], start=1):
-            low, _, gap = cell.partition("+")
-            assert int(low) == B.least_length(k, d).n
-            assert int(low) + int(gap or 0) == B.existence_length(k, d).n
-
-
-@pytest.mark.parametrize("argv,msg", [
-    (["--n", "5", "--k", "7"], "Argument 'k' must be at most 5, not 7."),
-    (["--n", "5", "--d", "6"], "Argument 'd' must be at most 5, not 6."),
-    (["--n", "x", "--k", "2"], "Argument 'n' must be an integer, not 'x'."),
-    (["--n", "5"], "two or three of"),
-    (["--table", "--d", "3", "--n", "1-4"], "must not be given with --table"),
-    (["--table", "--k", "0-4"], "Argument 'k' must be at least 1, not 0."),
-    (["--table", "--d", "1-200"], "Argument 'd' must be at most 128 with --table, not 200."),
-])
-def test_cli_bad_input(capsys, argv, msg):
-    from gf2codes.cli import main
-
-    assert main(["bounds", *argv]) == 2
-    err = capsys.readouterr().err
-    assert msg in err and err.count("\n") == 1
-
-
-def test_cli_subprocess_bad_input_exits_2():
-    env = dict(os.environ, PYTHONPATH=str(REPO))
-    proc = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--n", "5", "--k", "9"],
-                          capture_output=True, text=True, env=env, timeout=120)
-    assert proc.returncode == 2
-    lines = proc.stderr.strip().splitlines()
-    assert lines == ["gf2codes bounds: error: Argument 'k' must be at most 5, not 9."]
-    assert "Traceback" not in proc.stderr
-
-
-
 # ------------------------------------------- absurd sizes answer at once (issue 14)
 
 
@@ -448,24 +346,6 @@ def test_regression_bounds_k12_d100000_answers_with_formula_bounds():
     lb = B.least_length(12, 100000)
     assert lb.n == sum(-(-100000 // (1 << i)) for i in range(12))
     assert B.existence_length(12, 100000) == B.LengthBound(1200000, "repetition blocks")
-
-
-def test_regression_cli_absurd_size_through_a_pipe():
-    out = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--n", "100000", "--k",
-                          "50000", "--json"], capture_output=True, text=True, timeout=120,
-                         check=True)
-    rec = json.loads(out.stdout)
-    assert "lp" in rec["skipped"] and "hamming" in rec["skipped"]
-
-
-@pytest.mark.parametrize("argv", [["--k", "12", "--d", "100000"],
-                                  ["--n", "100000", "--d", "1000"]])
-def test_regression_cli_absurd_sizes_name_the_skipped_bounds(argv, capsys):
-    from gf2codes.cli import main
-
-    assert main(["bounds", *argv, "--json"]) == 0
-    rec = json.loads(capsys.readouterr().out)
-    assert "lp" in rec["skipped"] and "hamming" in rec["skipped"]
 
 
 def test_table_bounds_never_below_brute_force():

@@ -9,10 +9,7 @@ with its source; "from memory" where the value was recalled, not re-read).
 
 from __future__ import annotations
 
-import json
 import signal
-import subprocess
-import sys
 import threading
 
 import pytest
@@ -161,17 +158,3 @@ def test_every_shipped_nonexistence_result_is_decided_again_slow():
     for n, k, d, nodes in B.proved_nonexistence():
         dec = decide_existence(n, k, d, max_nodes=None)
         assert dec.status == "none" and dec.nodes == nodes, (n, k, d)
-
-
-def test_cli_existence_mode(capsys):
-    from gf2codes.cli import main
-
-    out = subprocess.run([sys.executable, "-m", "gf2codes", "bounds", "--n", "12", "--k", "5",
-                          "--d", "5", "--json"], capture_output=True, text=True, check=True)
-    rec = json.loads(out.stdout)
-    assert rec["exists"] is False and "exhaustive search" in rec["statement"]
-    assert main(["bounds", "--n", "16", "--k", "8", "--d", "5", "--json"]) == 0
-    rec = json.loads(capsys.readouterr().out)
-    assert rec["exists"] is True and rec["nodes"] >= 1
-    rows = [[int(c) for c in row] for row in rec["generator"]]
-    assert brute_distance(rows) >= 5  # computed by brute force in this test

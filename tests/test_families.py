@@ -1,4 +1,4 @@
-"""Tests of gf2codes.families and of ``gf2codes build``.
+"""Tests of gf2codes.families and gf2codes.polynomials (the ``build`` command: test_cli_build.py).
 
 Sources of the check values are given beside them; "brute force" means every
 codeword is enumerated in this test with gf2codes._reference.
@@ -9,7 +9,6 @@ from __future__ import annotations
 import json
 import math
 import os
-import subprocess
 import sys
 from math import comb
 
@@ -23,7 +22,6 @@ from gf2codes.cli import main
 from gf2codes.code import Code
 from gf2codes.derive import rebuild
 from gf2codes.exceptions import ParameterError, ParseError
-from gf2codes.formats import read_code
 
 
 def _check_claims(code: Code, d: int) -> None:
@@ -350,79 +348,6 @@ def test_parameter_errors(call, match):
         call()
 
 
-# ------------------------------------------------------------------------ CLI
-def test_cli_build_prints_summary_and_matrix(capsys):
-    assert main(["build", "hamming", "3"]) == 0
-    out = capsys.readouterr().out
-    assert "[n, k] = [7, 4]" in out and "d = 3" in out
-    rows = [ln for ln in out.splitlines() if set(ln) <= {"0", "1"} and ln]
-    assert Code([[int(c) for c in r] for r in rows]) == F.hamming(3)
-    # the whole output is a gf2codes matrix file: the summary lines are comments
-    from gf2codes.formats import parse_text_matrix
-
-    assert all(ln.startswith("#") for ln in out.splitlines() if ln not in rows)
-    assert Code(parse_text_matrix(out)) == F.hamming(3)
-
-
-def test_cli_bch_never_calls_designed_distance_exact(capsys):
-    assert main(["build", "bch", "127", "--designed", "21"]) == 0
-    out = capsys.readouterr().out
-    assert "[n, k] = [127, 64]" in out
-    assert "d ≥ 21" in out or "21 ≤ d ≤" in out
-    assert "d = 21" not in out
-
-
-def test_cli_build_list(capsys):
-    assert main(["build", "--list"]) == 0
-    out = capsys.readouterr().out
-    for name in F.FAMILIES:
-        assert f"\n{name}" in out
-    assert main(["build", "--list", "--json"]) == 0
-    listed = json.loads(capsys.readouterr().out)
-    assert [f["family"] for f in listed] == list(F.FAMILIES)
-
-
-def test_cli_build_json_and_file(tmp_path, capsys):
-    out = tmp_path / "rm.json"
-    assert main(["build", "reed-muller", "2", "6", "-o", str(out)]) == 0
-    assert "wrote" in capsys.readouterr().out
-    rec = read_code(out)
-    assert rec.code == F.reed_muller(2, 6) and rec.code.recipe == F.reed_muller(2, 6).recipe
-    assert (rec.d_lower, rec.d_upper) == (16, 16)
-    assert main(["build", "golay", "--json"]) == 0
-    obj = json.loads(capsys.readouterr().out)
-    assert (obj["n"], obj["k"], obj["d_lower"], obj["d_upper"]) == (23, 12, 7, 7)
-
-
-def test_cli_build_verify(capsys):
-    assert main(["build", "golay", "--verify", "--json"]) == 0
-    obj = json.loads(capsys.readouterr().out)
-    assert "7" in json.dumps(obj)
-
-
-@pytest.mark.parametrize("argv,match", [
-    (["build", "cyclic", "23", "x^11+x+1"], "must divide x^23 - 1"),
-    (["build", "qr", "13"], "congruent to 1 or 7 modulo 8"),
-    (["build", "bch", "64", "--designed", "3"], "2^m - 1"),
-    (["build"], "--list"),
-])
-def test_cli_build_bad_input(argv, match, capsys):
-    assert main(argv) == 2
-    err = capsys.readouterr().err.strip()
-    assert len(err.splitlines()) == 1 and match in err
-
-
-def test_cli_subprocess_bad_input_exits_2_with_one_line():
-    env = {**os.environ, "PYTHONPATH": "/work/main"}
-    proc = subprocess.run([sys.executable, "-m", "gf2codes", "build", "reed-muller", "5", "3"],
-                          capture_output=True, text=True, env=env, timeout=120)
-    assert proc.returncode == 2
-    assert proc.stdout == ""
-    lines = proc.stderr.strip().splitlines()
-    assert lines == ["gf2codes build: error: Argument 'r' must be at most 3, not 5."]
-    assert "Traceback" not in proc.stderr
-
-
 @pytest.mark.parametrize("n", [7, 15, 21, 23, 31, 45, 63, 75, 117, 100])
 def test_factorisation_of_x_n_minus_1(n):
     # Regression: galois' randomised factoring gave up on x^75 - 1 and x^117 - 1
@@ -431,7 +356,7 @@ def test_factorisation_of_x_n_minus_1(n):
     # product (with multiplicities) is x^n - 1; galois checks both (reference library).
     import galois
 
-    from gf2codes.families import _factor_x_n_minus_1
+    from gf2codes.polynomials import factor_x_n_minus_1 as _factor_x_n_minus_1
 
     factors, mults = _factor_x_n_minus_1(n)
     product = galois.Poly.One()
@@ -440,3 +365,83 @@ def test_factorisation_of_x_n_minus_1(n):
         product *= f**e
     assert product == galois.Poly.Degrees([n, 0])
     assert len(F.generator_polynomials(n)) == math.prod(e + 1 for e in mults) - 1
+
+
+# ------------------------------------------------------- parameter spaces (issue 13)
+def test_base_codes_are_those_of_the_old_hand_written_list():
+    """search._families.base_codes iterates the families' parameter spaces now; it must
+    give the same bases in the same order as the hand-written ranges it replaced. The
+    digest was computed once with the old code (commit 5afd3ae) in this way."""
+    import hashlib
+
+    from gf2codes.search._families import base_codes
+
+    bases = base_codes()
+    text = repr([(b.n, b.k, b.delta, b.family, b.kwargs) for b in bases])
+    assert len(bases) == 177
+    assert hashlib.sha256(text.encode()).hexdigest() == (
+        "315a812db52ca026bbff5482dcfec47b4b884ae2870df4ed4afe615e3cb6af9a")
+
+
+def test_seed_script_offers_the_old_family_candidates():
+    """scripts/build_catalog.families iterates the parameter spaces: the same 1418
+    candidates in the same order as its old hand-written loops (digest computed once
+    with the old code, commit 5afd3ae, by recording every offer as below)."""
+    import hashlib
+    from pathlib import Path
+
+    sys.path.insert(0, str(Path(__file__).resolve().parents[1] / "scripts"))
+    try:
+        import build_catalog
+    finally:
+        sys.path.pop(0)
+
+    class Recorder:
+        def __init__(self):
+            self.log = []
+            self.items = self.log  # the script logs len(pool.items)
+
+        def offer(self, code, source, *, seed=None, recipe=None, time_limit=5.0):
+            self.log.append((code.name, code.n, code.k,
+                             json.dumps(code.recipe, sort_keys=True, default=str), source,
+                             time_limit))
+
+    pool = Recorder()
+    build_catalog.families(pool, lambda message: None)
+    assert len(pool.log) == 1418
+    assert hashlib.sha256(repr(pool.log).encode()).hexdigest() == (
+        "d2321196e63fa1fc00113167a28a31998778fc806d1349f8673d4b0dbeed65b8")
+
+
+@pytest.mark.parametrize("name", list(F.FAMILIES))
+def test_instances_build_codes_within_the_length(name):
+    fam = F.FAMILIES[name]
+    members = list(fam.instances(24))
+    if name in ("double-circulant", "quasi-cyclic", "matrix"):
+        assert members == []
+        return
+    assert members, name
+    for kw in members[:40]:
+        code = fam.build(**kw)
+        assert code.n <= 24
+        if fam.parameters is not None:
+            n, k, d = fam.parameters(**kw)
+            assert (code.n, code.k) == (n, k) and code.d_lower is not None
+            assert code.d_lower >= d
+    assert list(fam.instances(24, lengths={7})) == [
+        kw for kw in members if fam.build(**kw).n == 7]
+
+
+def test_instances_spaces_by_hand():
+    # read off the definitions: Hamming m = 2..12, RM(r, m) for r <= m, primes = +-1 mod 8
+    assert list(F.FAMILIES["hamming"].instances(63)) == [{"m": m} for m in range(2, 7)]
+    assert list(F.FAMILIES["reed-muller"].instances(4)) == [
+        {"r": 0, "m": 1}, {"r": 1, "m": 1}, {"r": 0, "m": 2}, {"r": 1, "m": 2},
+        {"r": 2, "m": 2}]
+    assert [kw["p"] for kw in F.FAMILIES["qr"].instances(50)] == [7, 17, 23, 31, 41, 47]
+    assert list(F.FAMILIES["golay"].instances(22)) == []
+
+
+def test_construction_note_names_the_designed_distance():
+    assert "designed distance δ = 5" in F.construction_note(F.bch(31, 5))
+    assert F.construction_note(F.hamming(3)) is None

@@ -26,17 +26,6 @@ from ._text import length_grid
 
 __all__ = ["register", "run"]
 
-_TITLES = {
-    "singleton": "Singleton",
-    "hamming": "Hamming (sphere packing)",
-    "plotkin": "Plotkin (with shortening)",
-    "griesmer": "Griesmer",
-    "elias": "Elias-Bassalygo",
-    "lp": "Delsarte LP (certified)",
-    "gilbert_varshamov": "Gilbert-Varshamov",
-    "varshamov": "Varshamov",
-}
-
 _NODES = 2_000_000  # default node budget of the exhaustive decision
 _TABLE_LIMIT = 128  # largest k and d accepted in --table mode (each cell may solve LPs)
 
@@ -114,9 +103,10 @@ def _mark(values: dict[str, int], best: int) -> dict[str, bool]:
 def _run_nk(n: int, k: int, as_json: bool) -> int:
     upper = B.upper_bounds(n, k)  # validates n and k
     best = B.best_upper(n, k)
-    lower = B.lower_bounds(n, k)
+    exist = B.existence_for_distance(n, k)
+    lower = exist.per_bound
     skipped = B.skipped_bounds(n)
-    guaranteed = max(lower.values()) if lower else max(1, n // k)  # k repetition blocks
+    guaranteed = exist.value
     chain = B.bound_chain(n, k) if n <= B.TABLE_LENGTH else []
     if as_json:
         print_json({"mode": "distance", "n": n, "k": k, "upper": upper, "lower": lower,
@@ -129,7 +119,7 @@ def _run_nk(n: int, k: int, as_json: bool) -> int:
     t.add_column("")
     tight = _mark(upper, min(upper.values()))
     for name, value in upper.items():
-        t.add_row(_TITLES[name], str(value), "tightest" if tight[name] else "")
+        t.add_row(B.title(name), str(value), "tightest" if tight[name] else "")
     console.print(t)
     console.print(f"Best upper bound: d <= {best.d}  (from {best.by})")
     if len(chain) > 1:
@@ -138,8 +128,8 @@ def _run_nk(n: int, k: int, as_json: bool) -> int:
     lo = Table(title="Existence bounds")
     lo.add_column("bound")
     lo.add_column("d at least", justify="right")
-    for name, value in lower.items():
-        lo.add_row(_TITLES[name], str(value))
+    for name, low in lower.items():
+        lo.add_row(B.title(name), str(low))
     console.print(lo)
     if not lower:
         console.print(f"  (existence bounds skipped; {n // k or 1} = floor(n/k) from "
@@ -152,15 +142,13 @@ def _run_nk(n: int, k: int, as_json: bool) -> int:
 def _run_nd(n: int, d: int, as_json: bool) -> int:
     dims = B.dimension_bounds(n, d)  # validates n and d
     best = B.max_dimension(n, d)
-    exist = B.existence_dimension(n, d)
+    exist = B.existence_for_dimension(n, d)
     if as_json:
         print_json({"mode": "dimension", "n": n, "d": d, "upper": dims,
-                    "lower": {name: _exist_k(n, d, name)
-                              for name in ("gilbert_varshamov", "varshamov")
-                              if name not in B.skipped_bounds(n)},
+                    "lower": exist.per_bound,
                     "skipped": B.skipped_bounds(n),
                     "best": {"k": best.k, "by": best.by},
-                    "guaranteed_k": {"k": exist.k, "by": exist.by}})
+                    "guaranteed_k": {"k": exist.value, "by": exist.by}})
         return 0
     t = Table(title=f"Greatest dimension k for a binary linear code, n = {n}, d = {d}")
     t.add_column("bound")
@@ -168,35 +156,28 @@ def _run_nd(n: int, d: int, as_json: bool) -> int:
     t.add_column("")
     tight = _mark(dims, min(dims.values()))
     for name, value in dims.items():
-        t.add_row(_TITLES[name], str(value), "tightest" if tight[name] else "")
+        t.add_row(B.title(name), str(value), "tightest" if tight[name] else "")
     console.print(t)
     console.print(f"Best: k <= {best.k}  (k = {best.k + 1} ruled out by {best.by})"
                   if best.k < n else f"Best: k <= {best.k}")
     _print_skipped(B.skipped_bounds(n))
     console.print(f"Every binary linear code of length {n} and distance >= {d} has "
-                  f"k <= {best.k}; k = {exist.k} is guaranteed to exist "
-                  f"({_TITLES.get(exist.by, exist.by)}).")
+                  f"k <= {best.k}; k = {exist.value} is guaranteed to exist "
+                  f"({B.title(exist.by)}).")
     return 0
-
-
-def _exist_k(n: int, d: int, name: str) -> int:
-    k = 0
-    while k < n and B.lower_bounds(n, k + 1)[name] >= d:
-        k += 1
-    return k
 
 
 def _run_kd(k: int, d: int, as_json: bool) -> int:
     lengths = B.length_bounds(k, d)  # validates k and d
     best = B.least_length(k, d)
-    exist = B.existence_length(k, d)
+    exist = B.existence_for_length(k, d)
     forced = B.ruling_out(best.n - 1, k, d) if best.n > 1 else []
     if as_json:
         print_json({"mode": "length", "k": k, "d": d, "upper": lengths,
-                    "lower": B._existence_lengths(k, d),
+                    "lower": exist.per_bound,
                     "skipped": B.skipped_bounds(max(k, d)),
                     "best": {"n": best.n, "by": best.by, "ruled_out_by": forced},
-                    "guaranteed_n": {"n": exist.n, "by": exist.by}})
+                    "guaranteed_n": {"n": exist.value, "by": exist.by}})
         return 0
     t = Table(title=f"Least length n for a binary linear code, k = {k}, d = {d}")
     t.add_column("bound")
@@ -204,23 +185,20 @@ def _run_kd(k: int, d: int, as_json: bool) -> int:
     t.add_column("")
     top = max(lengths.values())
     for name, value in lengths.items():
-        t.add_row(_TITLES[name], str(value), "tightest" if value == top else "")
+        t.add_row(B.title(name), str(value), "tightest" if value == top else "")
     console.print(t)
-    why = ", ".join(_TITLES.get(f, f) for f in forced) or best.by
+    why = ", ".join(B.title(f) for f in forced) or best.by
     console.print(f"No binary linear code with k = {k}, d = {d} is shorter than {best.n}; "
                   f"length {best.n - 1} is ruled out by: {why}.")
     _print_skipped(B.skipped_bounds(max(k, d)))
-    console.print(f"Such a code is guaranteed to exist at length {exist.n} "
-                  f"({_TITLES.get(exist.by, exist.by)}).")
+    console.print(f"Such a code is guaranteed to exist at length {exist.value} "
+                  f"({B.title(exist.by)}).")
     return 0
-
-
-_TITLES["repetition blocks"] = "k repetition blocks of length d"
 
 
 def _print_skipped(skipped: dict[str, str]) -> None:
     for name, why in skipped.items():
-        console.print(f"  skipped: {_TITLES.get(name, name)} ({why})", soft_wrap=True)
+        console.print(f"  skipped: {B.title(name)} ({why})", soft_wrap=True)
 
 
 def _run_nkd(n: int, k: int, d: int, args) -> int:

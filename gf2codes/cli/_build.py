@@ -13,7 +13,7 @@ from typing import Any
 
 from ..code import Code
 from ..exceptions import ParameterError
-from ..families import FAMILIES, Family
+from ..families import FAMILIES, Family, construction_note
 from ._common import (
     add_json_flag,
     check_output_path,
@@ -44,15 +44,6 @@ def describe_distance(code: Code) -> str:
     return "d unknown (not computed)"
 
 
-def _designed_note(code: Code) -> str | None:
-    first = code.recipe[0] if code.recipe else {}
-    if first.get("family") == "bch" and len(code.recipe) == 1:
-        return (f"designed distance δ = {first['designed']}; the lower bound is the BCH "
-                "bound (d ≥ δ, or more when the roots run on), the upper bound the weight "
-                "of the generator polynomial")
-    return None
-
-
 def add_output_flags(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("-o", "--output", metavar="FILE", help="write the code to FILE")
     parser.add_argument("--format", choices=("text", "npy", "json"), default=None,
@@ -68,7 +59,7 @@ def add_output_flags(parser: argparse.ArgumentParser) -> None:
 def _summary(code: Code, heading: str | None = None) -> list[str]:
     lines = [heading or (code.name or "code"), f"  [n, k] = [{code.n}, {code.k}]",
              f"  {describe_distance(code)}"]
-    note = _designed_note(code)
+    note = construction_note(code)
     if note:
         lines.append(f"  {note}")
     return lines

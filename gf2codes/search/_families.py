@@ -20,12 +20,12 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 from dataclasses import dataclass
-from functools import lru_cache
-from math import comb
+from itertools import zip_longest
 
 import numpy as np
 
 from .. import derive, families
+from .._util import memo
 from ..code import Code
 from ..exceptions import ParameterError
 from ._base import Strategy
@@ -48,48 +48,70 @@ class _Base:
         return _build(self.family, self.kwargs)
 
 
-@lru_cache(maxsize=512)
+@memo(512)
 def _build(family: str, kwargs: tuple) -> Code:
     return families.FAMILIES[family].build(**dict(kwargs))
 
 
-@lru_cache(maxsize=1)
+#: The families the bases come from, with the longest base of each, in groups whose
+#: members are taken in turn (Hamming, extended Hamming, simplex for each m, ...).
+_BASE_FAMILIES: tuple[tuple[tuple[str, ...], int], ...] = (
+    (("hamming", "extended-hamming", "simplex"), _MAX_BASE_LENGTH),
+    (("reed-muller",), _MAX_BASE_LENGTH),
+    (("golay",), _MAX_BASE_LENGTH),
+    (("extended-golay",), _MAX_BASE_LENGTH),
+    (("qr",), 127),
+    (("bch",), 255),
+)
+
+
+def _wanted(family: str, kw: dict) -> bool:
+    """The members used as bases: BCH codes of length >= 15 with odd designed distance
+    up to (n + 1) / 2 (above it the dimensions are small and the codes no better)."""
+    if family == "bch":
+        return kw["n"] >= 15 and kw["designed"] % 2 == 1 and kw["designed"] <= kw["n"] // 2 + 1
+    return True
+
+
+def _space(name: str, max_length: int) -> Iterator[tuple[str, dict]]:
+    for kw in families.FAMILIES[name].instances(max_length):
+        if _wanted(name, kw):
+            yield name, kw
+
+
+def _members(names: tuple[str, ...], max_length: int) -> Iterator[tuple[str, dict]]:
+    for group in zip_longest(*(_space(name, max_length) for name in names)):
+        yield from (m for m in group if m is not None)
+
+
+@memo(1)
 def base_codes() -> tuple[_Base, ...]:
-    """The base codes with their proved distance bounds (built once, lazily for BCH)."""
+    """The base codes with their proved distance bounds (built once; the members whose
+    parameters a formula gives are not built here).
+
+    The members are those of the families' parameter spaces
+    (:meth:`gf2codes.families.Family.instances`), one code per family, length and
+    dimension (the first, by designed distance, for BCH).
+    """
     out: list[_Base] = []
-
-    def add(family: str, length: int, dim: int, delta: int, **kw) -> None:
-        if 1 <= dim <= length <= _MAX_BASE_LENGTH and delta >= 1:
-            out.append(_Base(length, dim, delta, family, tuple(sorted(kw.items()))))
-
-    for m in range(2, 11):
-        add("hamming", 2**m - 1, 2**m - 1 - m, 3, m=m)
-        add("extended-hamming", 2**m, 2**m - 1 - m, 4, m=m)
-        add("simplex", 2**m - 1, m, 2 ** (m - 1), m=m)
-    for m in range(1, 11):
-        for r in range(0, m + 1):
-            add("reed-muller", 2**m, sum(comb(m, i) for i in range(r + 1)), 2 ** (m - r),
-                r=r, m=m)
-    add("golay", 23, 12, 7)
-    add("extended-golay", 24, 12, 8)
-    for p in (7, 17, 23, 31, 41, 47, 71, 73, 79, 89, 97, 103, 113, 127):
-        try:
-            c = _build("qr", (("p", p),))
-        except ParameterError:
-            continue
-        add("qr", c.n, c.k, c.d_lower or 1, p=p)
-    for m in range(4, 9):
-        N = 2**m - 1
-        seen = set()
-        for designed in range(3, N // 2 + 2, 2):
-            try:
-                c = _build("bch", (("b", 1), ("designed", designed), ("n", N)))
-            except ParameterError:
+    seen: set[tuple[str, int, int]] = set()
+    for names, max_length in _BASE_FAMILIES:
+        for family, kw in _members(names, max_length):
+            key = tuple(sorted(kw.items()))
+            formula = families.FAMILIES[family].parameters
+            if formula is not None:
+                length, dim, delta = formula(**kw)
+            else:
+                try:
+                    c = _build(family, key)
+                except ParameterError:
+                    continue
+                length, dim, delta = c.n, c.k, c.d_lower or kw.get("designed", 1)
+            if (family, length, dim) in seen:
                 continue
-            if c.k in seen:
-                continue
-            seen.add(c.k)
-            add("bch", N, c.k, c.d_lower or designed, n=N, designed=designed, b=1)
+            seen.add((family, length, dim))
+            if 1 <= dim <= length <= _MAX_BASE_LENGTH and delta >= 1:
+                out.append(_Base(length, dim, delta, family, key))
     return tuple(out)
 
 
