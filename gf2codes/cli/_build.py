@@ -15,6 +15,7 @@ from ..code import Code
 from ..exceptions import ParameterError
 from ..families import FAMILIES, Family
 from ._common import (
+    StagedProgress,
     add_json_flag,
     check_output_path,
     clean,
@@ -96,11 +97,14 @@ def emit(code: Code, args: argparse.Namespace, lines: list[str],
                                        **(extra if fmt == "json" else {})),
             args.output, fallback))
     if args.verify:
-        from ._verify import report  # imported only when --verify asks for it
+        from ..report import verify  # imported only when --verify asks for it
+        from ._verify import render
 
         if not args.json:
             _print_lines(lines + ([f"  wrote {written}"] if written else []))
-        return int(report(code, as_json=args.json, time_limit=args.time_limit))
+        with StagedProgress() as bar:
+            rep = verify(code, time_limit=args.time_limit, progress=bar)
+        return render(rep, as_json=args.json)
     if args.json:
         record = formats.code_to_record(code, **extra)
         record["distance"] = describe_distance(code)

@@ -21,6 +21,7 @@ from ..exceptions import Gf2CodesError, ParameterError
 
 __all__ = ["console", "err_console", "print_json", "parse_range", "parse_int", "parse_float",
            "add_json_flag", "add_executor_options", "executor_from_args", "ProgressBar",
+           "StagedProgress",
            "clean", "seconds_arg", "seconds_or_zero_arg", "seed_arg", "count_arg",
            "probability_arg", "address_arg",
            "check_output_path", "write_output", "MAX_SECONDS", "MAX_SEED"]
@@ -328,3 +329,33 @@ class ProgressBar:
             note = str(info["note"])
         assert self._task is not None
         self._bar.update(self._task, completed=done, total=max(total, done), note=note)
+
+
+class StagedProgress:
+    """The progress callback the CLI hands to a staged library report: one
+    :class:`ProgressBar` per stage, labelled with ``info["stage"]``.
+
+    The library announces each stage with ``progress(0, 0, {"stage": name})``; a bar
+    appears (after its delay) only for a stage that then reports work.
+    """
+
+    def __init__(self) -> None:
+        self._stage: str | None = None
+        self._bar: ProgressBar | None = None
+
+    def __enter__(self) -> StagedProgress:
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        if self._bar is not None:
+            self._bar.__exit__()
+            self._bar = None
+
+    def __call__(self, done: int, total: int, info: dict) -> None:
+        stage = str(info.get("stage", ""))
+        if self._bar is None or stage != self._stage:
+            self.__exit__()
+            self._stage = stage
+            self._bar = ProgressBar(stage)
+        if done or total:  # not the announcement of the stage
+            self._bar(done, total, info)
