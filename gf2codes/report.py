@@ -266,17 +266,7 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
         d_from_dist = next(i for i, a in enumerate(dist) if i and a)
         notes.append("d proved from the exact weight distribution")
         res = _exact_from_distribution(code, res, d_from_dist, seed)
-    dual_d = None
-    if dual_dist is not None:
-        dual_d = minimum_weight_from_distribution(dual_dist)
-    elif dist is not None:
-        try:
-            dual_d = dual_distance(code, dist, deadline=clock.deadline)
-        except TimeoutError:
-            notes.append("dual distance not computed: the time limit ran out")
-            not_computed.append("dual distance")
-    elif code.k < code.n and "dual distance" not in not_computed:
-        not_computed.append("dual distance")
+    dual_d = _dual_distance(code, dist, dual_dist, clock, notes, not_computed)
     wrong = _contradicted(stated or {}, res)
     if wrong:
         notes.append("the input file states " + ", ".join(wrong) +
@@ -358,6 +348,22 @@ def _weights(code: Code, res: DistanceResult, clock: Clock, progress: Progress |
             notes.append("weight distribution not computed: the time limit ran out")
             not_computed.append("weight distribution")
     return None, None
+
+
+def _dual_distance(code: Code, dist: list[int] | None, dual_dist: list[int] | None,
+                   clock: Clock, notes: list[str], not_computed: list[str]) -> int | None:
+    """The dual distance from whichever distribution was counted (None, noted, if none)."""
+    if dual_dist is not None:
+        return minimum_weight_from_distribution(dual_dist)
+    if dist is not None:
+        try:
+            return dual_distance(code, dist, deadline=clock.deadline)
+        except TimeoutError:
+            notes.append("dual distance not computed: the time limit ran out")
+            not_computed.append("dual distance")
+    elif code.k < code.n and "dual distance" not in not_computed:
+        not_computed.append("dual distance")
+    return None
 
 
 def _distributions(code: Code, progress: Progress, deadline: float | None

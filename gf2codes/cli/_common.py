@@ -205,6 +205,17 @@ class _Console(Console):
         self.file.write(text)
         self.file.flush()
 
+    def binary(self, data: bytes) -> None:
+        """Write ``data`` as it is to the underlying byte stream (an exported file)."""
+        self.file.flush()
+        buffer = getattr(self.file, "buffer", None)
+        if buffer is None:  # a text-only stream (a test's StringIO): the text formats
+            self.file.write(data.decode("utf-8", "replace"))
+        else:
+            buffer.write(data)
+            buffer.flush()
+        self.file.flush()
+
 
 console = _Console(highlight=False)
 err_console = _Console(stderr=True, highlight=False)

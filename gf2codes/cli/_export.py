@@ -8,7 +8,6 @@ XOR count so that codes with equal ``[n, k, d]`` can be compared.
 from __future__ import annotations
 
 import argparse
-import sys
 
 from rich.markup import escape
 
@@ -62,8 +61,7 @@ def run(args: argparse.Namespace) -> int:
     if args.output:
         write_export(data, args.output)
     else:
-        sys.stdout.buffer.write(data)
-        sys.stdout.flush()
+        console.binary(data)
     if args.json:
         print_json(summary)
         return 0

@@ -1,8 +1,9 @@
 """Text notations shared by the sub-commands: weight counts, the proved interval of d,
 a matrix block that can be pasted back in, and the (k, d) grid of shortest lengths.
 
-Everything here is plain text written with :func:`sys.stdout.write` by the callers, so
-nothing is elided or wrapped when the output goes to a pipe or a narrow terminal.
+Everything here is plain text, written as it is by the callers (``console.plain`` of
+:mod:`gf2codes.cli._common`, or :func:`sys.stdout.write`), so nothing is elided or
+wrapped when the output goes to a pipe or a narrow terminal.
 """
 
 from __future__ import annotations
