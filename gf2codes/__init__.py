@@ -14,6 +14,7 @@ The public API is re-exported here from the topic modules:
 * :mod:`gf2codes.catalog` — the local SQLite catalog of proved codes
 * :mod:`gf2codes.search` — the shortest code for (k, d), best d, best k
 * :mod:`gf2codes.decoding` — coset leaders, exact BSC error probabilities, simulation
+* :mod:`gf2codes.report` — the verify report (what ``gf2codes verify`` prints), as an object
 * :mod:`gf2codes.export` — C headers, Tanner graphs and other hand-off formats
 * :mod:`gf2codes.plots` — matplotlib figures (optional extra, imported on use)
 * :mod:`gf2codes.exceptions` — the error hierarchy
@@ -32,7 +33,8 @@ from ._version import __version__  # noqa: F401 - public, listed by __all__
 # numba and no compiled kernel; ``from gf2codes import Code`` costs only what Code
 # needs. A test checks that every name of every module's ``__all__`` is reachable here.
 _MODULES = ("code", "linalg", "distance", "weights", "exceptions", "formats", "bounds",
-            "families", "derive", "parallel", "search", "decoding", "export", "catalog")
+            "families", "derive", "parallel", "search", "decoding", "export", "catalog",
+            "report")
 
 
 def _public_names() -> list[str]:

@@ -19,6 +19,7 @@ if TYPE_CHECKING:  # numpy is not imported at run time: `gf2codes --help` needs 
 __all__ = [
     "Question", "QUESTIONS", "DistanceMethod", "DISTANCE_METHODS", "StopReason",
     "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "SeedLike", "BoundKind",
+    "VerifyMethod", "VERIFY_METHODS", "DecoderName", "IntervalName",
 ]
 
 #: What a search optimises with the other two of n, k, d fixed: the shortest ``length``
@@ -29,6 +30,17 @@ QUESTIONS: tuple[Question, ...] = get_args(Question)
 #: The proof routes of :func:`gf2codes.distance.minimum_distance` (``auto`` picks one).
 DistanceMethod = Literal["auto", "gray", "brouwer-zimmermann", "dual-columns"]
 DISTANCE_METHODS: tuple[DistanceMethod, ...] = get_args(DistanceMethod)
+
+#: How ``verify`` settles d: ``exact`` proves it, ``fast`` gives a quick interval whose
+#: upper end comes from information-set decoding.
+VerifyMethod = Literal["exact", "fast"]
+VERIFY_METHODS: tuple[VerifyMethod, ...] = get_args(VerifyMethod)
+
+#: The decoders of the BSC simulation (``auto`` picks one by the number of parity bits).
+DecoderName = Literal["auto", "syndrome", "information-set"]
+
+#: The confidence intervals of a Monte Carlo estimate.
+IntervalName = Literal["clopper-pearson", "wilson"]
 
 #: Why a long computation ended before it finished (``None`` where it finished;
 #: ``exhausted``: a search whose every strategy had nothing more to offer).

@@ -158,7 +158,7 @@ def test_an_internal_error_is_one_line_with_status_3(monkeypatch, capsys, tmp_pa
     def broken(*args, **kwargs):
         raise ZeroDivisionError("simulated bug")
 
-    monkeypatch.setattr(verify_cli, "analyse", broken)
+    monkeypatch.setattr(verify_cli, "verify", broken)
     monkeypatch.delenv("GF2CODES_DEBUG", raising=False)
     assert main(["verify", str(DEMO)]) == 3
     err = capsys.readouterr().err

@@ -240,7 +240,7 @@ def test_channel_on_hamming_4095_answers(capsys, tmp_path):
 
 
 def test_channel_binomials_match_math_comb():
-    from gf2codes.decoding import _binomials
+    from gf2codes.decoding.probability import _binomials
 
     for n in (0, 1, 7, 64, 300):
         assert list(_binomials(n)) == [math.comb(n, i) for i in range(n + 1)]

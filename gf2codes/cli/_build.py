@@ -1,59 +1,22 @@
 """``gf2codes build FAMILY ARGS...``: construct a code from a named family.
 
-Also holds the output helpers that ``gf2codes derive`` shares: the one-line
-statement of what is known about d, and writing / printing / verifying a code.
+The output helpers it shares with ``gf2codes derive`` (the statement of what is known
+about d, writing / printing / verifying a code) live in ``_text`` and ``_common``.
 """
 
 from __future__ import annotations
 
 import argparse
-import sys
-from pathlib import Path
 from typing import Any
 
 from ..code import Code
 from ..exceptions import ParameterError
 from ..families import FAMILIES, Family, construction_note
-from ._common import (
-    add_json_flag,
-    check_output_path,
-    clean,
-    print_json,
-    seconds_arg,
-    write_output,
-)
-from ._text import matrix_block
+from ._common import add_output_flags, check_output_path, emit, print_json
+from ._common import print_lines as _print_lines
+from ._text import describe_distance
 
-__all__ = ["register", "run", "describe_distance", "add_output_flags", "emit"]
-
-#: Largest generator matrix (in bits) printed to the terminal.
-_MAX_PRINTED_BITS = 1 << 20
-
-
-def describe_distance(code: Code) -> str:
-    """What the construction proves about d, in words; never more than it proves."""
-    lo, hi = code.d_lower, code.d_upper
-    if lo is not None and lo == hi:
-        return f"d = {lo} (lower and upper bounds of the construction agree)"
-    if lo is not None and hi is not None:
-        return f"{lo} ≤ d ≤ {hi} (bounds from the construction; d not computed)"
-    if lo is not None:
-        return f"d ≥ {lo} (lower bound from the construction; d not computed)"
-    if hi is not None:
-        return f"d ≤ {hi} (upper bound from the construction; d not computed)"
-    return "d unknown (not computed)"
-
-
-def add_output_flags(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("-o", "--output", metavar="FILE", help="write the code to FILE")
-    parser.add_argument("--format", choices=("text", "npy", "json"), default=None,
-                        help="file format (default: from the file name; .npy, .json, "
-                             "else text)")
-    parser.add_argument("--verify", action="store_true",
-                        help="compute the minimum distance and print the full verification")
-    parser.add_argument("--time-limit", type=seconds_arg, default=None, metavar="SECONDS",
-                        help="time limit for --verify")
-    add_json_flag(parser)
+__all__ = ["register", "run"]
 
 
 def _summary(code: Code, heading: str | None = None) -> list[str]:
@@ -63,60 +26,6 @@ def _summary(code: Code, heading: str | None = None) -> list[str]:
     if note:
         lines.append(f"  {note}")
     return lines
-
-
-def emit(code: Code, args: argparse.Namespace, lines: list[str],
-         record_fields: dict[str, Any] | None = None) -> int:
-    """Write (``-o``), then verify (``--verify``) or print the code; return the exit status.
-
-    ``record_fields`` are extra keys of a JSON record (written or printed)."""
-    from .. import formats
-
-    extra = dict(record_fields or {})
-    written = None
-    if args.output:
-        fmt = args.format or {".npy": "npy", ".json": "json"}.get(
-            Path(args.output).suffix.lower(), "text")
-
-        def fallback() -> None:  # the write failed: print the code, so nothing is lost
-            _print_lines(lines + [f"generator matrix ({code.k} x {code.n}):"]
-                         + formats.rows_to_strings(code.G))
-
-        written = str(write_output(
-            lambda: formats.write_code(code, args.output, fmt,
-                                       **(extra if fmt == "json" else {})),
-            args.output, fallback))
-    if args.verify:
-        from ._verify import report  # imported only when --verify asks for it
-
-        if not args.json:
-            _print_lines(lines + ([f"  wrote {written}"] if written else []))
-        return int(report(code, as_json=args.json, time_limit=args.time_limit))
-    if args.json:
-        record = formats.code_to_record(code, **extra)
-        record["distance"] = describe_distance(code)
-        if written:
-            record["written"] = written
-        print_json(record)
-        return 0
-    if written:
-        lines = lines + [f"  wrote {written}"]
-    elif code.n * code.k <= _MAX_PRINTED_BITS:
-        # The whole output is a matrix file: the summary as comments, then the rows.
-        lines = [f"# {line.strip()}" for line in lines]
-        lines += matrix_block(formats.rows_to_strings(code.G),
-                              f"generator matrix, {code.k} x {code.n} (this output is a "
-                              "gf2codes matrix file)")
-    else:
-        lines = lines + ["  (generator matrix too large to print; use -o FILE)"]
-    _print_lines(lines)
-    return 0
-
-
-def _print_lines(lines: list[str]) -> None:
-    # names and file names come from the input: no control characters reach the terminal
-    sys.stdout.write("\n".join(clean(line) for line in lines) + "\n")
-    sys.stdout.flush()
 
 
 def _argument_usage(family: Family) -> str:

@@ -15,33 +15,17 @@ even spacing on a linear scale); several may be given and are merged and sorted.
 from __future__ import annotations
 
 import argparse
-from typing import Any
+from pathlib import Path
 
-import numpy as np
 from rich import box
 from rich.markup import escape
 from rich.table import Table
 
-from ..code import Code
-from ..decoding import (
-    DEFAULT_MAX_REDUNDANCY,
-    block_error_probability,
-    bounded_distance_failure_probability,
-    check_probability,
-    coset_leader_distribution,
-    simulate_bsc,
-    undetected_error_probability,
-)
-from ..exceptions import ParameterError, TooExpensiveError, check_int
+from ..decoding import DEFAULT_MAX_REDUNDANCY, ChannelReport, channel_report, check_probability
+from ..exceptions import ParameterError, check_int
 from ..formats import one_line, read_code
-from ..weights import (
-    DEFAULT_MAX_ENUMERATION,
-    minimum_weight_from_distribution,
-    weight_distribution,
-    weight_enumeration_cost,
-)
 from ._common import (
-    ProgressBar,
+    StagedProgress,
     add_json_flag,
     clean,
     console,
@@ -53,7 +37,7 @@ from ._common import (
 )
 from ._text import weight_text
 
-__all__ = ["register", "run", "parse_p", "analyse"]
+__all__ = ["register", "run", "parse_p"]
 
 DEFAULT_P = ["1e-6:1e-1:11"]
 _MAX_POINTS = 1000
@@ -153,97 +137,6 @@ def parse_p(tokens: list[str] | None) -> list[float]:
     return out
 
 
-# ------------------------------------------------------------------------- analysis
-
-
-def _distance(code: Code, distribution: list[int] | None, notes: list[str]) -> int | None:
-    if distribution is not None:
-        return minimum_weight_from_distribution(distribution)
-    from ..distance import minimum_distance
-
-    try:
-        res = minimum_distance(code)
-    except TooExpensiveError:
-        notes.append("d not proved (too expensive): the bounded-distance figures are omitted")
-        return None
-    return res.d if res.exact else None
-
-
-def analyse(code: Code, ps: list[float], *, simulate: int | None = None, seed: int = 0,
-            confidence: float = 0.99, index: int = 0, source: str | None = None
-            ) -> dict[str, Any]:
-    """Everything ``channel`` reports for one code, as a JSON-ready dict.
-
-    The simulation at the ``j``-th ``p`` of the ``index``-th code uses the generator
-    ``numpy.random.default_rng([seed, index, j])``, so each figure is reproducible on
-    its own.
-
-    Raises
-    ------
-    TooExpensiveError
-        If the exact method does not apply (``n - k > 26``) and ``simulate`` is None.
-    """
-    n, k = code.n, code.k
-    r = n - k
-    where = f"{source}: " if source else ""
-    exact = r <= DEFAULT_MAX_REDUNDANCY
-    if not exact and not simulate:
-        raise TooExpensiveError(
-            f"{where}the exact block-error probability of this [{n},{k}] code needs the coset "
-            f"leaders of all 2^{r} = {float(2 ** r):.3g} syndromes (n - k = {r} > "
-            f"{DEFAULT_MAX_REDUNDANCY}); use --simulate N for a Monte Carlo estimate.",
-            work=float(2 ** r))
-    notes: list[str] = []
-    distribution = None
-    if weight_enumeration_cost(code) <= DEFAULT_MAX_ENUMERATION:
-        with ProgressBar("counting weights") as bar:
-            distribution = weight_distribution(code, progress=bar)
-    else:
-        notes.append(f"weight distribution not computed (2^{min(k, r)} codewords): the "
-                     "undetected-error figures are simulated only")
-    d = _distance(code, distribution, notes)
-    t = None if d is None else (d - 1) // 2
-    leaders = coset_leader_distribution(code) if exact else None
-    if not exact:
-        notes.append(f"n - k = {r} > {DEFAULT_MAX_REDUNDANCY}: no exact block-error figures, "
-                     "simulation only")
-    points = []
-    simulations = []
-    for j, p in enumerate(ps):
-        pt: dict[str, Any] = {
-            "p": p,
-            "block_error": None if leaders is None else block_error_probability(leaders, p),
-            "bounded_distance_failure": (None if t is None else
-                                         bounded_distance_failure_probability(n, t, p)),
-            "undetected_error": (None if distribution is None else
-                                 undetected_error_probability(distribution, p)),
-        }
-        if simulate:
-            with ProgressBar(f"simulating p = {p:g}") as bar:
-                res = simulate_bsc(code, p, simulate, seed=np.random.default_rng([seed, index, j]),
-                                   d=d, confidence=confidence, progress=bar)
-            simulations.append(res)
-            sim = res.as_dict()
-            sim["seed"] = [seed, index, j]
-            pt["simulation"] = sim
-        points.append(pt)
-    return {
-        "source": source,
-        "name": code.name,
-        "n": n,
-        "k": k,
-        "d": d,
-        "t": t,
-        "coset_leaders": None if leaders is None else list(leaders.counts),
-        "covering_radius": None if leaders is None else leaders.covering_radius,
-        "weight_distribution": distribution,
-        "points": points,
-        "notes": notes,
-        "_leaders": leaders,
-        "_simulations": simulations,
-    }
-
-
 # ------------------------------------------------------------------------------ run
 
 
@@ -261,13 +154,15 @@ def run(args: argparse.Namespace) -> int:
 
         require_matplotlib()
     records = [(f, read_code(f, parity_check=args.parity_check)) for f in args.files]
-    reports = [analyse(rec.code, ps, simulate=args.simulate, seed=args.seed,
-                       confidence=args.confidence, index=i, source=f)
-               for i, (f, rec) in enumerate(records)]
+    reports = []
+    for i, (f, rec) in enumerate(records):
+        with StagedProgress() as bar:
+            reports.append(channel_report(rec.code, ps, simulate=args.simulate, seed=args.seed,
+                                          confidence=args.confidence, index=i, source=f,
+                                          progress=bar))
     path = _plot(reports, ps, args.plot) if args.plot else None
     if args.json:
-        print_json({"codes": [{key: v for key, v in rep.items() if not key.startswith("_")}
-                              for rep in reports]})
+        print_json({"codes": [rep.to_dict() for rep in reports]})
     else:
         for rep in reports:
             _print(rep, args)
@@ -284,12 +179,12 @@ def _fmt(x: float | None, digits: int = 4) -> str:
     return f"{x:.{digits - 1}e}"
 
 
-def _print(rep: dict[str, Any], args: argparse.Namespace) -> None:
-    n, k, d, t = rep["n"], rep["k"], rep["d"], rep["t"]
+def _print(rep: ChannelReport, args: argparse.Namespace) -> None:
+    n, k, d, t = rep.n, rep.k, rep.d, rep.t
     params = f"n={n} k={k} " + (f"d={d} t={t}" if d is not None else "d not proved")
-    title = clean(f"{rep['source'] or rep['name'] or 'code'}  BSC  {params}")
-    if rep["name"] and rep["source"]:
-        title += clean(f"  ({rep['name']})")
+    title = clean(f"{rep.source or rep.name or 'code'}  BSC  {params}")
+    if rep.name and rep.source:
+        title += clean(f"  ({rep.name})")
     t_text = f"t = {t}" if t is not None else "t unknown"
     console.print(escape(title), style="bold", soft_wrap=True)
     table = Table(box=box.SIMPLE_HEAD, pad_edge=False)
@@ -301,30 +196,29 @@ def _print(rep: dict[str, Any], args: argparse.Namespace) -> None:
         conf = f"{args.confidence * 100:g}%"
         table.add_column(f"simulated block error\n[{conf} interval]", justify="left",
                          no_wrap=True)
-    for pt in rep["points"]:
-        row = [f"{pt['p']:g}", _fmt(pt["block_error"]), _fmt(pt["bounded_distance_failure"]),
-               _fmt(pt["undetected_error"])]
-        if args.simulate:
-            be = pt["simulation"]["block_error"]
-            row.append(f"{_fmt(be['value'], 3)} [{_fmt(be['lower'], 3)}, "
-                       f"{_fmt(be['upper'], 3)}]")
+    for pt in rep.points:
+        row = [f"{pt.p:g}", _fmt(pt.block_error), _fmt(pt.bounded_distance_failure),
+               _fmt(pt.undetected_error)]
+        if pt.simulation is not None:
+            be = pt.simulation.block_error
+            row.append(f"{_fmt(be.value, 3)} [{_fmt(be.lower, 3)}, {_fmt(be.upper, 3)}]")
         table.add_row(*row)
     console.print(table)
-    if rep["coset_leaders"] is not None:
-        console.print("coset leaders by weight: " + weight_text(rep["coset_leaders"], "L")
-                      + f"   covering radius {rep['covering_radius']}", soft_wrap=True)
-    if rep["weight_distribution"] is not None:
-        console.print("weight distribution: " + weight_text(rep["weight_distribution"]),
+    if rep.leaders is not None:
+        console.print("coset leaders by weight: " + weight_text(rep.leaders.counts, "L")
+                      + f"   covering radius {rep.leaders.covering_radius}", soft_wrap=True)
+    if rep.weight_distribution is not None:
+        console.print("weight distribution: " + weight_text(rep.weight_distribution),
                       soft_wrap=True)
-    if args.simulate and rep["points"]:
-        first = rep["points"][0]["simulation"]
-        console.print(f"simulation: {first['trials']:,} codewords per p, "
-                      f"{first['decoder']}, seed {args.seed}")
-    for note in rep["notes"]:
+    if rep.simulations:
+        first = rep.simulations[0]
+        console.print(f"simulation: {first.trials:,} codewords per p, "
+                      f"{first.decoder}, seed {args.seed}")
+    for note in rep.notes:
         console.print(f"note: {escape(note)}")
 
 
-def _plot(reports: list[dict[str, Any]], ps: list[float], path: str):
+def _plot(reports: list[ChannelReport], ps: list[float], path: str) -> Path:
     from ..plots import ChannelCurve, block_error_figure, save_figure
 
     positive = [p for p in ps if p > 0]
@@ -336,20 +230,19 @@ def _plot(reports: list[dict[str, Any]], ps: list[float], path: str):
     grid = [lo * (hi / lo) ** (i / (_PLOT_POINTS - 1)) for i in range(_PLOT_POINTS)]
     curves = []
     for rep in reports:
-        n, leaders, dist, t = rep["n"], rep["_leaders"], rep["weight_distribution"], rep["t"]
-        label = f"[{n},{rep['k']}" + (f",{rep['d']}]" if rep["d"] is not None else "]")
-        name = one_line((rep["name"] or "").split("[")[0].strip(), extra="$")  # data
+        label = f"[{rep.n},{rep.k}" + (f",{rep.d}]" if rep.d is not None else "]")
+        name = one_line((rep.name or "").split("[")[0].strip(), extra="$")  # data
         if name:
             label += f" {name}"
+        exact = rep.exact_at(grid)
         curves.append(ChannelCurve(
-            label=label, p=grid, k=rep["k"],
-            block_error=None if leaders is None else
-            [block_error_probability(leaders, p) for p in grid],
-            bounded_distance=None if t is None else
-            [bounded_distance_failure_probability(n, t, p) for p in grid],
-            undetected=None if dist is None else
-            [undetected_error_probability(dist, p) for p in grid],
-            simulated=rep["_simulations"],
+            label=label, p=grid, k=rep.k,
+            block_error=None if rep.leaders is None else [x.block_error for x in exact],
+            bounded_distance=None if rep.t is None else
+            [x.bounded_distance_failure for x in exact],
+            undetected=None if rep.weight_distribution is None else
+            [x.undetected_error for x in exact],
+            simulated=rep.simulations,
         ))
     fig = block_error_figure(curves)
     return save_figure(fig, path)

@@ -6,7 +6,6 @@ import argparse
 import json
 import math
 import os
-import sys
 import unicodedata
 from collections.abc import Callable
 from pathlib import Path
@@ -17,10 +16,14 @@ from rich.console import Console
 if TYPE_CHECKING:  # pragma: no cover
     from rich.progress import Progress, TaskID
 
+    from ..code import Code
+
 from ..exceptions import Gf2CodesError, ParameterError
+from ._text import describe_distance, matrix_block
 
 __all__ = ["console", "err_console", "print_json", "parse_range", "parse_int", "parse_float",
            "add_json_flag", "add_executor_options", "executor_from_args", "ProgressBar",
+           "StagedProgress", "add_output_flags", "emit", "print_lines",
            "clean", "seconds_arg", "seconds_or_zero_arg", "seed_arg", "count_arg",
            "probability_arg", "address_arg",
            "check_output_path", "write_output", "MAX_SECONDS", "MAX_SEED"]
@@ -196,6 +199,23 @@ class _Console(Console):
         self.quiet = True
         raise BrokenPipeError("standard output was closed by its reader")
 
+    def plain(self, text: str) -> None:
+        """Write ``text`` exactly as it is (no markup, wrapping or styles), then flush:
+        JSON and matrix files that a pipe must receive whole."""
+        self.file.write(text)
+        self.file.flush()
+
+    def binary(self, data: bytes) -> None:
+        """Write ``data`` as it is to the underlying byte stream (an exported file)."""
+        self.file.flush()
+        buffer = getattr(self.file, "buffer", None)
+        if buffer is None:  # a text-only stream (a test's StringIO): the text formats
+            self.file.write(data.decode("utf-8", "replace"))
+        else:
+            buffer.write(data)
+            buffer.flush()
+        self.file.flush()
+
 
 console = _Console(highlight=False)
 err_console = _Console(stderr=True, highlight=False)
@@ -211,8 +231,7 @@ def print_json(obj: Any, *, one_line: bool = False) -> None:
 
     ``one_line`` writes it on a single line, as one record of a JSON-lines stream.
     """
-    sys.stdout.write(json.dumps(obj, indent=None if one_line else 2, sort_keys=False) + "\n")
-    sys.stdout.flush()
+    console.plain(json.dumps(obj, indent=None if one_line else 2, sort_keys=False) + "\n")
 
 
 def parse_int(name: str, text: str) -> int:
@@ -328,3 +347,108 @@ class ProgressBar:
             note = str(info["note"])
         assert self._task is not None
         self._bar.update(self._task, completed=done, total=max(total, done), note=note)
+
+
+class StagedProgress:
+    """The progress callback the CLI hands to a staged library report: one
+    :class:`ProgressBar` per stage, labelled with ``info["stage"]``.
+
+    The library announces each stage with ``progress(0, 0, {"stage": name})``; a bar
+    appears (after its delay) only for a stage that then reports work.
+    """
+
+    def __init__(self) -> None:
+        self._stage: str | None = None
+        self._bar: ProgressBar | None = None
+
+    def __enter__(self) -> StagedProgress:
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        if self._bar is not None:
+            self._bar.__exit__()
+            self._bar = None
+
+    def __call__(self, done: int, total: int, info: dict) -> None:
+        stage = str(info.get("stage", ""))
+        if self._bar is None or stage != self._stage:
+            self.__exit__()
+            self._stage = stage
+            self._bar = ProgressBar(stage)
+        if done or total:  # not the announcement of the stage
+            self._bar(done, total, info)
+
+
+# ------------------------------------------------- writing a code (build, derive)
+
+#: Largest generator matrix (in bits) printed to the terminal.
+_MAX_PRINTED_BITS = 1 << 20
+
+
+def add_output_flags(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("-o", "--output", metavar="FILE", help="write the code to FILE")
+    parser.add_argument("--format", choices=("text", "npy", "json"), default=None,
+                        help="file format (default: from the file name; .npy, .json, "
+                             "else text)")
+    parser.add_argument("--verify", action="store_true",
+                        help="compute the minimum distance and print the full verification")
+    parser.add_argument("--time-limit", type=seconds_arg, default=None, metavar="SECONDS",
+                        help="time limit for --verify")
+    add_json_flag(parser)
+
+
+def emit(code: Code, args: argparse.Namespace, lines: list[str],
+         record_fields: dict[str, Any] | None = None) -> int:
+    """Write (``-o``), then verify (``--verify``) or print the code; return the exit status.
+
+    ``record_fields`` are extra keys of a JSON record (written or printed)."""
+    from .. import formats
+
+    extra = dict(record_fields or {})
+    written = None
+    if args.output:
+        fmt = args.format or {".npy": "npy", ".json": "json"}.get(
+            Path(args.output).suffix.lower(), "text")
+
+        def fallback() -> None:  # the write failed: print the code, so nothing is lost
+            print_lines(lines + [f"generator matrix ({code.k} x {code.n}):"]
+                        + formats.rows_to_strings(code.G))
+
+        written = str(write_output(
+            lambda: formats.write_code(code, args.output, fmt,
+                                       **(extra if fmt == "json" else {})),
+            args.output, fallback))
+    if args.verify:
+        from ..report import verify  # imported only when --verify asks for it
+        from ._verify import render
+
+        if not args.json:
+            print_lines(lines + ([f"  wrote {written}"] if written else []))
+        with StagedProgress() as bar:
+            rep = verify(code, time_limit=args.time_limit, progress=bar)
+        return render(rep, as_json=args.json)
+    if args.json:
+        record = formats.code_to_record(code, **extra)
+        record["distance"] = describe_distance(code)
+        if written:
+            record["written"] = written
+        print_json(record)
+        return 0
+    if written:
+        lines = lines + [f"  wrote {written}"]
+    elif code.n * code.k <= _MAX_PRINTED_BITS:
+        # The whole output is a matrix file: the summary as comments, then the rows.
+        lines = [f"# {line.strip()}" for line in lines]
+        lines += matrix_block(formats.rows_to_strings(code.G),
+                              f"generator matrix, {code.k} x {code.n} (this output is a "
+                              "gf2codes matrix file)")
+    else:
+        lines = lines + ["  (generator matrix too large to print; use -o FILE)"]
+    print_lines(lines)
+    return 0
+
+
+def print_lines(lines: list[str]) -> None:
+    """Print plain text lines on standard output (through :data:`console`), each made
+    safe by :func:`clean`: names and file names come from the input."""
+    console.plain("\n".join(clean(line) for line in lines) + "\n")

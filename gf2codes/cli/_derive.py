@@ -15,8 +15,8 @@ from typing import Any
 from ..code import Code
 from ..derive import UNARY_OPERATIONS, apply_operations, parse_operations
 from ..exceptions import Gf2CodesError, ParseError
-from ._build import add_output_flags, describe_distance, emit
-from ._common import check_output_path
+from ._common import add_output_flags, check_output_path, emit
+from ._text import describe_distance
 
 __all__ = ["register", "run"]
 

@@ -8,12 +8,11 @@ XOR count so that codes with equal ``[n, k, d]`` can be compared.
 from __future__ import annotations
 
 import argparse
-import sys
 
 from rich.markup import escape
 
 from ..exceptions import ParameterError
-from ..export import FORMATS, _write, export_code, systematic_encoder
+from ..export import FORMATS, export_code, systematic_encoder, write_export
 from ..formats import read_code
 from ._common import add_json_flag, console, err_console, print_json
 
@@ -60,10 +59,9 @@ def run(args: argparse.Namespace) -> int:
     enc = systematic_encoder(code)
     summary = {"source": args.file, "format": fmt, "output": args.output, **enc.summary()}
     if args.output:
-        _write(data, args.output)
+        write_export(data, args.output)
     else:
-        sys.stdout.buffer.write(data)
-        sys.stdout.flush()
+        console.binary(data)
     if args.json:
         print_json(summary)
         return 0

@@ -1,15 +1,20 @@
 """Text notations shared by the sub-commands: weight counts, the proved interval of d,
 a matrix block that can be pasted back in, and the (k, d) grid of shortest lengths.
 
-Everything here is plain text written with :func:`sys.stdout.write` by the callers, so
-nothing is elided or wrapped when the output goes to a pipe or a narrow terminal.
+Everything here is plain text, written as it is by the callers (``console.plain`` of
+:mod:`gf2codes.cli._common`, or :func:`sys.stdout.write`), so nothing is elided or
+wrapped when the output goes to a pipe or a narrow terminal.
 """
 
 from __future__ import annotations
 
 from collections.abc import Iterable, Mapping, Sequence
+from typing import TYPE_CHECKING
 
-__all__ = ["weight_text", "triple_text", "matrix_block", "length_grid"]
+if TYPE_CHECKING:  # pragma: no cover
+    from ..code import Code
+
+__all__ = ["weight_text", "triple_text", "matrix_block", "length_grid", "describe_distance"]
 
 
 def weight_text(counts: Sequence[int], letter: str = "A") -> str:
@@ -94,3 +99,17 @@ def length_grid(cells: Mapping[tuple[int, int], tuple[int, int | None]],
         lines.append(f"{'k=' + str(k):<{label}}" + "".join(f"{body[k, d]:>{width}}"
                                                           for d in distances))
     return lines
+
+
+def describe_distance(code: Code) -> str:
+    """What the construction proves about d, in words; never more than it proves."""
+    lo, hi = code.d_lower, code.d_upper
+    if lo is not None and lo == hi:
+        return f"d = {lo} (lower and upper bounds of the construction agree)"
+    if lo is not None and hi is not None:
+        return f"{lo} ≤ d ≤ {hi} (bounds from the construction; d not computed)"
+    if lo is not None:
+        return f"d ≥ {lo} (lower bound from the construction; d not computed)"
+    if hi is not None:
+        return f"d ≤ {hi} (upper bound from the construction; d not computed)"
+    return "d unknown (not computed)"
