@@ -19,6 +19,7 @@ import pytest
 
 from gf2codes import catalog as C
 from gf2codes import derive as D
+from gf2codes import equivalence as E
 from gf2codes import families as F
 from gf2codes.bounds import least_length
 from gf2codes.catalog import are_equivalent, code_facts, open_catalog
@@ -112,11 +113,11 @@ def test_inequivalent_codes_with_equal_weight_distributions_stay_apart(cat):
     result = are_equivalent(a, b)
     assert result.equivalent is False and "differ" in result.reason
     # the exact search alone (without the hash shortcut) proves it too
-    assert C._match(C.linalg.unpack(fa.light, 8), C.linalg.unpack(fb.light, 8), a, b) is None
+    assert E._match(E.linalg.unpack(fa.light, 8), E.linalg.unpack(fb.light, 8), a, b) is None
     # and a permuted copy is found equivalent by the same search
     pb = permuted(b, 5)
     r = are_equivalent(b, pb)
-    assert r.equivalent and C._permuted(b, r.permutation) == pb
+    assert r.equivalent and E._permuted(b, r.permutation) == pb
     ia, ib = cat.add(a, d=2), cat.add(b, d=2)
     assert ia != ib and len(cat) == 2
 
@@ -266,7 +267,7 @@ def test_migration_from_schema_1(tmp_path):
         con.execute(statement)
     h = F.hamming(3)
     f = code_facts(h)
-    rows = C.linalg.rref(h.packed_generator, n=7).sorted().rows
+    rows = E.linalg.rref(h.packed_generator, n=7).sorted().rows
     con.execute("INSERT INTO entry (n, k, d_lower, d_upper, generator, subspace, weights, "
                 "invariant, added_at, added_by) VALUES (7, 4, 3, 3, ?, ?, ?, ?, 'then', '0.0.1')",
                 (rows.astype("<u8").tobytes(), f.subspace, json.dumps(f.weights), f.invariant))
@@ -367,7 +368,7 @@ _KILLED = textwrap.dedent("""
             cat.add(F.hamming(m), d=3, source="family")
         golay = F.golay()
         facts = code_facts(golay)
-        with cat._write() as cur:
+        with cat.transaction() as cur:
             cat._store(cur, golay, facts, 7, 7, None, [{"source": "family"}], None, None, "user",
                        Provenance.proved_here("weight distribution"))
             print("in transaction", flush=True)
@@ -422,7 +423,7 @@ def _check_shipped(where, obj):
         built = D.rebuild(steps)
         perm = item.get("permutation")
         if perm is not None:
-            built = C._permuted(built, perm)
+            built = E._permuted(built, perm)
         assert built == rec.code, where
 
 
