@@ -43,7 +43,6 @@ from __future__ import annotations
 
 import hashlib
 import json
-import time
 from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
 from typing import Any
@@ -237,13 +236,13 @@ def search_cell(payload: dict[str, Any]) -> dict[str, Any]:
         rows, sn, sk = payload["start"]
         start.append(Code.from_packed(np.frombuffer(rows, dtype=np.uint64).reshape(sk, -1),
                                       sn))
-    t0 = time.perf_counter()
+    clock = Clock(None)
     result = search_distance(n, k, time_limit=payload.get("time_limit"),
                              max_steps=payload.get("max_steps"), seed=int(payload["seed"]),
                              strategies=payload.get("strategies"), start=start)
     out: dict[str, Any] = {"n": n, "k": k, "d": result.d_lower, "exact": result.d is not None,
                            "rows": None, "recipe": None, "strategy": result.strategy,
-                           "seconds": time.perf_counter() - t0, "stopped": result.stopped}
+                           "seconds": clock.elapsed(), "stopped": result.stopped}
     if result.d_lower > int(payload["d_before"]) and result.strategy != "start":
         code = result.code
         out["rows"] = np.ascontiguousarray(code.packed_generator, dtype=np.uint64).tobytes()
