@@ -39,7 +39,7 @@ import sys
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
-from typing import Any, Literal, overload
+from typing import Any
 
 import numpy as np
 
@@ -588,25 +588,23 @@ def _rows(obj: Any, n: int | None, source: str) -> np.ndarray:
             raise ParseError(str(exc).replace("<record>", source)) from None
     if any(r.startswith("hex:") for r in rows):
         raise ParseError(f"{source}: mix of hex and 0/1 rows.")
-    return parse_text_matrix("\n".join(rows), source=f"{source} (generator)")
+    return _strings_to_rows(rows, source, "generator")  # as in a code record
 
 
-@overload
-def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: Literal[False]) -> int: ...
-@overload
-def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: bool = True) -> int | None: ...
-def _pos_int(obj: Mapping[str, Any], key: str, source: str, *, null: bool = True) -> int | None:
+def _pos_int(obj: Mapping[str, Any], key: str, source: str) -> int:
     v = obj.get(key)
-    if v is None and null:
-        return None
     if isinstance(v, bool) or not isinstance(v, int) or v < 1:
-        raise ParseError(f"{source}: {key!r} must be a positive integer"
-                         f"{' or null' if null else ''}, not {v!r}.")
+        raise ParseError(f"{source}: {key!r} must be a positive integer, not {v!r}.")
     return v
 
 
 def parse_entry_record(obj: Any, source: str = "<record>") -> EntryRecord:
     """Check and read one record (a catalog entry or a plain ``gf2codes/code`` record).
+
+    A code record is read by :func:`record_to_code`; an entry record goes through the same
+    checks for what the two share (nesting, matrix size, 0/1 rows, ``d``, ``d_lower`` and
+    ``d_upper`` from 1 to n), then through its own (hex rows, ``n`` and ``k``, the stated
+    weights and recipes).
 
     Raises
     ------
@@ -624,8 +622,9 @@ def parse_entry_record(obj: Any, source: str = "<record>") -> EntryRecord:
         if lo is None:
             raise ParseError(f"{source}: the record states neither 'd' nor 'd_lower'.")
         recipe = list(rec.code.recipe)
-        return EntryRecord(rec.code, lo, hi or lo, d is not None or lo == hi, None, None, None,
-                       [{"source": "import", "recipe": recipe or None}], None, None, None)
+        return EntryRecord(rec.code, lo, hi or lo, d is not None or lo == hi, None, None,
+                           None, [{"source": "import", "recipe": recipe or None}], None, None,
+                           None)
     if kind != ENTRY_RECORD_KIND:
         raise ParseError(f"{source}: 'record' must be {ENTRY_RECORD_KIND!r} or "
                          f"{RECORD_KIND!r}, not {kind!r}.")
@@ -633,8 +632,11 @@ def parse_entry_record(obj: Any, source: str = "<record>") -> EntryRecord:
     if not isinstance(version, int) or version > ENTRY_RECORD_VERSION:
         raise ParseError(f"{source}: record version {version!r} is newer than this gf2codes "
                          f"understands ({ENTRY_RECORD_VERSION}); upgrade gf2codes.")
-    n = _pos_int(obj, "n", source, null=False)
-    k = _pos_int(obj, "k", source, null=False)
+    if _nesting(obj) > _MAX_NESTING:  # the checks of a code record (record_to_code)
+        raise ParseError(f"{source}: the record is nested too deeply to be a code record.")
+    _check_size(obj, source, max_entries())
+    n = _pos_int(obj, "n", source)
+    k = _pos_int(obj, "k", source)
     try:
         code = Code(_rows(obj, n, source))
     except ParameterError as exc:
@@ -642,9 +644,7 @@ def parse_entry_record(obj: Any, source: str = "<record>") -> EntryRecord:
     if (code.n, code.k) != (n, k):
         raise ParseError(f"{source}: the record says [n, k] = [{n}, {k}] but its generator "
                          f"gives [{code.n}, {code.k}].")
-    d = _pos_int(obj, "d", source)
-    lo = _pos_int(obj, "d_lower", source)
-    hi = _pos_int(obj, "d_upper", source)
+    d, lo, hi = (_distance_field(obj, key, source, n) for key in ("d", "d_lower", "d_upper"))
     lo = lo if lo is not None else d
     hi = hi if hi is not None else d
     if lo is None or hi is None:
