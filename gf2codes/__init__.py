@@ -33,8 +33,8 @@ from ._version import __version__  # noqa: F401 - public, listed by __all__
 # numba and no compiled kernel; ``from gf2codes import Code`` costs only what Code
 # needs. A test checks that every name of every module's ``__all__`` is reachable here.
 _MODULES = ("code", "linalg", "distance", "weights", "exceptions", "formats", "bounds",
-            "families", "derive", "parallel", "search", "decoding", "export", "catalog",
-            "report")
+            "families", "derive", "equivalence", "parallel", "search", "decoding", "export",
+            "catalog", "report")
 
 
 def _public_names() -> list[str]:

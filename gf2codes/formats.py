@@ -17,6 +17,11 @@ Three input formats, chosen by content and file name:
   character per coordinate. ``d`` is present and not null only when it was
   proved. Unknown keys are kept by the reader in :attr:`CodeRecord.extra`.
 
+* **catalog entry record** (JSON lines, ``gf2codes/catalog-entry``) — one stored
+  catalog entry per line, read by :func:`parse_entry_record` (which accepts plain code
+  records too, through :func:`record_to_code`); generator rows may be hexadecimal
+  (:func:`row_to_hex`). The keys are described in :mod:`gf2codes.catalog`.
+
 Every parse error is a :class:`~gf2codes.exceptions.ParseError` whose message
 names the file and, for text, the line. The file name ``-`` means standard input;
 pipes and devices are read like files. A matrix of more than
@@ -31,6 +36,7 @@ import json
 import math
 import os
 import sys
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -56,10 +62,19 @@ __all__ = [
     "max_entries",
     "read_input_bytes",
     "one_line",
+    "ENTRY_RECORD_KIND",
+    "ENTRY_RECORD_VERSION",
+    "EntryRecord",
+    "parse_entry_record",
+    "row_to_hex",
+    "hex_to_row",
 ]
 
 RECORD_KIND = "gf2codes/code"
 RECORD_VERSION = 1
+#: ``record`` value of an exported catalog entry.
+ENTRY_RECORD_KIND = "gf2codes/catalog-entry"
+ENTRY_RECORD_VERSION = 1
 _SEPARATORS = str.maketrans("", "", " \t,;")
 
 #: Default limit on the entries (rows times columns) of a matrix read from a file:
@@ -498,3 +513,169 @@ def _write_code(code: Code, p: Path, fmt: str, record_fields: dict[str, Any]) ->
                      encoding="utf-8")
     else:
         raise ParameterError(f"Argument 'format' must be one of text, npy, json, not {fmt!r}.")
+
+
+# ------------------------------------------------------------------ catalog entry records
+def row_to_hex(bits: Sequence[int] | np.ndarray) -> str:
+    """A 0/1 row as ``"hex:..."``: coordinate 0 is the most significant bit of digit 1.
+
+    >>> row_to_hex([1, 1, 0, 1, 0, 0, 1])
+    'hex:d2'
+    """
+    b = np.asarray(bits, dtype=np.uint8)
+    n = b.size
+    padded = np.zeros(-(-n // 4) * 4, dtype=np.uint8)
+    padded[:n] = b
+    digits = padded.reshape(-1, 4) @ np.array([8, 4, 2, 1])
+    return "hex:" + "".join("0123456789abcdef"[int(x)] for x in digits)
+
+
+def hex_to_row(text: str, n: int) -> np.ndarray:
+    """Inverse of :func:`row_to_hex` for a row of ``n`` coordinates.
+
+    Raises
+    ------
+    ParseError
+        If the digits are not hexadecimal, their count is not ``ceil(n/4)``, or a
+        padding bit is set.
+
+    >>> hex_to_row('hex:d2', 7).tolist()
+    [1, 1, 0, 1, 0, 0, 1]
+    """
+    body = text[4:] if text.startswith("hex:") else text
+    if len(body) != -(-n // 4):
+        raise ParseError(f"<record>: a hex row of {n} coordinates needs {-(-n // 4)} "
+                         f"digits, not {len(body)}.")
+    try:
+        values = [int(c, 16) for c in body]
+    except ValueError:
+        raise ParseError(f"<record>: {text!r} is not a hex row.") from None
+    bits = np.array([(v >> (3 - i)) & 1 for v in values for i in range(4)], dtype=np.uint8)
+    if bits[n:].any():
+        raise ParseError(f"<record>: the hex row {text!r} sets padding bits beyond "
+                         f"coordinate {n - 1}.")
+    return bits[:n]
+
+
+@dataclass
+class EntryRecord:
+    """A catalog entry record as read by :func:`parse_entry_record` (not yet trusted:
+    what it states about d is a claim until checked or proved)."""
+
+    code: Code
+    d_lower: int
+    d_upper: int
+    proved: bool
+    weights: list[int] | None
+    invariant: str | None
+    proof: dict[str, Any] | None
+    recipes: list[dict[str, Any]]
+    added: str | None
+    added_by: str | None
+    origin: str | None
+
+
+def _rows(obj: Any, n: int | None, source: str) -> np.ndarray:
+    rows = obj.get("generator")
+    if not isinstance(rows, list) or not rows or not all(isinstance(r, str) for r in rows):
+        raise ParseError(f"{source}: 'generator' must be a non-empty list of strings.")
+    if all(r.startswith("hex:") for r in rows):
+        if not isinstance(n, int) or isinstance(n, bool) or n < 1:
+            raise ParseError(f"{source}: hex rows need a positive integer 'n'.")
+        try:
+            return np.array([hex_to_row(r, n) for r in rows])
+        except ParseError as exc:
+            raise ParseError(str(exc).replace("<record>", source)) from None
+    if any(r.startswith("hex:") for r in rows):
+        raise ParseError(f"{source}: mix of hex and 0/1 rows.")
+    return _strings_to_rows(rows, source, "generator")  # as in a code record
+
+
+def _pos_int(obj: Mapping[str, Any], key: str, source: str) -> int:
+    v = obj.get(key)
+    if isinstance(v, bool) or not isinstance(v, int) or v < 1:
+        raise ParseError(f"{source}: {key!r} must be a positive integer, not {v!r}.")
+    return v
+
+
+def parse_entry_record(obj: Any, source: str = "<record>") -> EntryRecord:
+    """Check and read one record (a catalog entry or a plain ``gf2codes/code`` record).
+
+    A code record is read by :func:`record_to_code`; an entry record goes through the same
+    checks for what the two share (nesting, matrix size, 0/1 rows, ``d``, ``d_lower`` and
+    ``d_upper`` from 1 to n), then through its own (hex rows, ``n`` and ``k``, the stated
+    weights and recipes).
+
+    Raises
+    ------
+    ParseError
+        Naming ``source`` and what is wrong.
+    """
+    if not isinstance(obj, dict):
+        raise ParseError(f"{source}: a record must be a JSON object.")
+    kind = obj.get("record")
+    if kind == RECORD_KIND:
+        rec = record_to_code(obj, source)  # checks every field, d's included
+        d = rec.d
+        lo = d if d is not None else rec.d_lower
+        hi = d if d is not None else rec.d_upper
+        if lo is None:
+            raise ParseError(f"{source}: the record states neither 'd' nor 'd_lower'.")
+        recipe = list(rec.code.recipe)
+        return EntryRecord(rec.code, lo, hi or lo, d is not None or lo == hi, None, None,
+                           None, [{"source": "import", "recipe": recipe or None}], None, None,
+                           None)
+    if kind != ENTRY_RECORD_KIND:
+        raise ParseError(f"{source}: 'record' must be {ENTRY_RECORD_KIND!r} or "
+                         f"{RECORD_KIND!r}, not {kind!r}.")
+    version = obj.get("version", ENTRY_RECORD_VERSION)
+    if not isinstance(version, int) or version > ENTRY_RECORD_VERSION:
+        raise ParseError(f"{source}: record version {version!r} is newer than this gf2codes "
+                         f"understands ({ENTRY_RECORD_VERSION}); upgrade gf2codes.")
+    if _nesting(obj) > _MAX_NESTING:  # the checks of a code record (record_to_code)
+        raise ParseError(f"{source}: the record is nested too deeply to be a code record.")
+    _check_size(obj, source, max_entries())
+    n = _pos_int(obj, "n", source)
+    k = _pos_int(obj, "k", source)
+    try:
+        code = Code(_rows(obj, n, source))
+    except ParameterError as exc:
+        raise ParseError(f"{source}: {exc}") from None
+    if (code.n, code.k) != (n, k):
+        raise ParseError(f"{source}: the record says [n, k] = [{n}, {k}] but its generator "
+                         f"gives [{code.n}, {code.k}].")
+    d, lo, hi = (_distance_field(obj, key, source, n) for key in ("d", "d_lower", "d_upper"))
+    lo = lo if lo is not None else d
+    hi = hi if hi is not None else d
+    if lo is None or hi is None:
+        raise ParseError(f"{source}: the record must state 'd' or both 'd_lower' and "
+                         "'d_upper'.")
+    if d is not None and not lo == d == hi:
+        raise ParseError(f"{source}: 'd' = {d} disagrees with d_lower = {lo}, d_upper = {hi}.")
+    if lo > hi:
+        raise ParseError(f"{source}: d_lower = {lo} exceeds d_upper = {hi}.")
+    weights = obj.get("weights")
+    if weights is not None and (not isinstance(weights, list) or len(weights) != n + 1
+                                or not all(isinstance(a, int) and a >= 0 for a in weights)
+                                or sum(weights) != 1 << k):
+        raise ParseError(f"{source}: 'weights' must be {n + 1} counts summing to 2^{k}.")
+    recipes = obj.get("recipes") or []
+    if not isinstance(recipes, list) or not all(
+            isinstance(r, dict) and isinstance(r.get("source"), str) for r in recipes):
+        raise ParseError(f"{source}: 'recipes' must be a list of objects with a 'source'.")
+    for r in recipes:
+        steps = r.get("recipe")
+        if steps is not None and (not isinstance(steps, list)
+                                  or not all(isinstance(s, dict) for s in steps)):
+            raise ParseError(f"{source}: a recipe must be a list of steps (objects).")
+        perm = r.get("permutation")
+        if perm is not None and (not isinstance(perm, list) or sorted(perm) != list(range(n))):
+            raise ParseError(f"{source}: a recipe's 'permutation' must be a permutation of "
+                             f"0..{n - 1}.")
+    invariant = obj.get("invariant")
+    proof = obj.get("proof")
+    return EntryRecord(code, lo, hi, lo == hi, weights,
+                   invariant if isinstance(invariant, str) else None,
+                   proof if isinstance(proof, dict) else None,
+                   [dict(r) for r in recipes] or [{"source": "import", "recipe": None}],
+                   obj.get("added"), obj.get("gf2codes"), obj.get("origin"))

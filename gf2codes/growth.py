@@ -8,18 +8,19 @@ smaller ``k``). On each cell it runs the search portfolio of :mod:`gf2codes.sear
 with a per-cell budget (a step limit, so that the same seed gives the same codes on
 any machine, and optionally a time limit), starting from the catalog's best code for
 the cell, and saves every proved improvement at once. Propagation is the catalog's
-closed-form rule (shorten, subcode, puncture, extend, pad): a stored code fills its
+closed-form rule (shorten, subcode, puncture, extend, append zeros;
+:mod:`gf2codes.catalog.propagation`): a stored code fills its
 neighbours the moment it is stored, and before each batch the pending cells that
 propagation has closed are marked so without a search.
 
 Plan and progress
 -----------------
 The plan lives in the catalog's SQLite file (tables ``growth_job`` and
-``growth_cell``, schema version 4): a job is identified by a digest of its
-specification (cells, budget, seed, strategies), so running the same command again
-continues the same job. A cell is marked done only after its code, if any, has been
-committed; a process killed at any moment (even with ``SIGKILL``) loses at most the
-unfinished searches of the cells under way, never a proved code.
+``growth_cell``, schema version 4, written through :mod:`gf2codes.catalog.plan`): a job is
+identified by a digest of its specification (cells, budget, seed, strategies), so running
+the same command again continues the same job. A cell is marked done only after its code,
+if any, has been committed; a process killed at any moment (even with ``SIGKILL``) loses
+at most the unfinished searches of the cells under way, never a proved code.
 
 Cells are searched in batches of fixed size (``batch``, independent of the number of
 workers): every search of a batch starts from the catalog as it was when the batch
@@ -42,14 +43,20 @@ from __future__ import annotations
 
 import hashlib
 import json
-import time
 from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
-from typing import Any, Literal
+from typing import Any
 
 import numpy as np
 
+from ._util import Clock
+from .bounds import best_upper, least_length
+from .catalog import Catalog, plan
+from .catalog.propagation import reach_distance
+from .code import Code
 from .exceptions import ParameterError, check_int
+from .search import resolve_strategies, search_distance
+from .typing import Outcome
 
 __all__ = [
     "GROWTH_STRATEGIES",
@@ -68,9 +75,6 @@ __all__ = [
 #: (whose codes the shipped seed already holds) and the lexicode (whose cost grows
 #: exponentially with ``k``).
 GROWTH_STRATEGIES: tuple[str, ...] = ("greedy", "anneal", "circulant", "cyclic", "random")
-
-#: What became of a finished cell.
-Outcome = Literal["improved", "unchanged", "closed"]
 
 #: ``progress(summary)`` after every finished cell.
 GrowthProgress = Callable[["GrowthSummary"], None]
@@ -178,7 +182,7 @@ class GrowthSummary:
 def region_cells(*, lengths: Iterable[int] | None = None,
                  dimensions: Iterable[int] | None = None,
                  targets: Iterable[tuple[int, int]] = (),
-                 catalog: Any = None) -> list[tuple[int, int]]:
+                 catalog: Catalog | None = None) -> list[tuple[int, int]]:
     """The cells ``(n, k)`` of a region, sorted.
 
     Parameters
@@ -194,8 +198,6 @@ def region_cells(*, lengths: Iterable[int] | None = None,
     catalog : Catalog, optional
         Needed with ``targets``.
     """
-    from .bounds import least_length
-
     cells: set[tuple[int, int]] = set()
     if lengths is not None:
         dims = None if dimensions is None else sorted(set(dimensions))
@@ -228,22 +230,19 @@ def search_cell(payload: dict[str, Any]) -> dict[str, Any]:
     better than ``d_before`` was found), ``recipe``, ``strategy``, ``seconds``,
     ``stopped``.
     """
-    from .code import Code
-    from .search import search_distance
-
     n, k = int(payload["n"]), int(payload["k"])
     start = []
     if payload.get("start") is not None:
         rows, sn, sk = payload["start"]
         start.append(Code.from_packed(np.frombuffer(rows, dtype=np.uint64).reshape(sk, -1),
                                       sn))
-    t0 = time.perf_counter()
+    clock = Clock(None)
     result = search_distance(n, k, time_limit=payload.get("time_limit"),
                              max_steps=payload.get("max_steps"), seed=int(payload["seed"]),
                              strategies=payload.get("strategies"), start=start)
     out: dict[str, Any] = {"n": n, "k": k, "d": result.d_lower, "exact": result.d is not None,
                            "rows": None, "recipe": None, "strategy": result.strategy,
-                           "seconds": time.perf_counter() - t0, "stopped": result.stopped}
+                           "seconds": clock.elapsed(), "stopped": result.stopped}
     if result.d_lower > int(payload["d_before"]) and result.strategy != "start":
         code = result.code
         out["rows"] = np.ascontiguousarray(code.packed_generator, dtype=np.uint64).tobytes()
@@ -263,22 +262,14 @@ def _job_key(spec: dict[str, Any]) -> str:
     return hashlib.sha256(text.encode()).hexdigest()[:32]
 
 
-def _now() -> str:
-    from datetime import datetime, timezone
-
-    return datetime.now(timezone.utc).replace(microsecond=0).isoformat().replace("+00:00", "Z")
-
-
 class _State:
     """The catalog's proved d per cell and the upper bounds (cached per catalog change)."""
 
-    def __init__(self, catalog: Any) -> None:
+    def __init__(self, catalog: Catalog) -> None:
         self.catalog = catalog
         self._bounds: dict[tuple[int, int], tuple[int, str]] = {}
 
     def bound(self, n: int, k: int) -> tuple[int, str]:
-        from .bounds import best_upper
-
         key = (n, k)
         if key not in self._bounds:
             ub = best_upper(n, k)
@@ -286,24 +277,20 @@ class _State:
         return self._bounds[key]
 
     def d(self, n: int, k: int) -> int:
-        from .catalog import _reach_d
-
-        ids, N0, K0, L0, _, proved = self.catalog._load_arrays()
-        if not proved.any():
+        arrays = self.catalog.arrays()
+        if not arrays.proved.any():
             return 0
         # only distances proved by this installation count (claims never do)
-        return int(_reach_d(N0[proved], K0[proved], L0[proved], n, k).max())
+        ids, N0, K0, L0, _, _ = arrays.only_proved()
+        return int(reach_distance(N0, K0, L0, n, k).max())
 
 
-def _plan(catalog: Any, state: _State, spec: dict[str, Any]) -> tuple[int, int]:
+def _plan(catalog: Catalog, state: _State, spec: dict[str, Any]) -> tuple[int, int]:
     """Find or create the job of ``spec``; return (job id, cells already done)."""
     key = _job_key(spec)
-    con = catalog._con
-    row = con.execute("SELECT id FROM growth_job WHERE key = ?", (key,)).fetchone()
-    if row is not None:
-        done = con.execute("SELECT count(*) FROM growth_cell WHERE job_id = ? AND "
-                           "state = 'done'", (row[0],)).fetchone()[0]
-        return int(row[0]), int(done)
+    found = plan.find_job(catalog, key)
+    if found is not None:
+        return found
     ranked = []
     for n, k in spec["cells"]:
         bound, _ = state.bound(n, k)
@@ -311,40 +298,22 @@ def _plan(catalog: Any, state: _State, spec: dict[str, Any]) -> tuple[int, int]:
         if d < bound:
             ranked.append((-(bound - d), n, k, d, bound))
     ranked.sort()
-    with catalog._write() as cur:  # one transaction: the plan exists whole or not at all
-        cur.execute("INSERT INTO growth_job (key, spec, created_at) VALUES (?, ?, ?)",
-                    (key, json.dumps(spec, sort_keys=True), _now()))
-        job = int(cur.lastrowid)
-        cur.executemany(
-            "INSERT INTO growth_cell (job_id, rank, n, k, d_planned, bound) "
-            "VALUES (?, ?, ?, ?, ?, ?)",
-            [(job, rank, n, k, d, bound) for rank, (_, n, k, d, bound) in enumerate(ranked)])
+    job = plan.create_job(catalog, key, spec,
+                          [(n, k, d, bound) for _, n, k, d, bound in ranked])
     return job, 0
 
 
-def _pending(catalog: Any, job: int) -> list[tuple[int, int]]:
-    return [(int(n), int(k)) for n, k in catalog._con.execute(
-        "SELECT n, k FROM growth_cell WHERE job_id = ? AND state = 'pending' ORDER BY rank",
-        (job,))]
+def _finish(catalog: Catalog, job: int, res: CellResult) -> None:
+    plan.finish_cell(catalog, job, res.n, res.k, outcome=res.outcome, d_before=res.d_before,
+                     d_found=res.d_found, entry=res.entry, strategy=res.strategy,
+                     seconds=res.seconds, stopped=res.stopped)
 
 
-def _finish(catalog: Any, job: int, res: CellResult) -> None:
-    with catalog._write() as cur:
-        cur.execute(
-            "UPDATE growth_cell SET state = 'done', outcome = ?, d_before = ?, d_found = ?, "
-            "entry_id = ?, strategy = ?, seconds = ?, stopped = ?, finished_at = ? "
-            "WHERE job_id = ? AND n = ? AND k = ?",
-            (res.outcome, res.d_before, res.d_found, res.entry, res.strategy, res.seconds,
-             res.stopped, _now(), job, res.n, res.k))
-
-
-def job_status(catalog: Any, job: int) -> dict[str, int]:
+def job_status(catalog: Catalog, job: int) -> dict[str, int]:
     """Counts of a job's cells: ``cells``, ``done``, ``improved``, ``closed`` (now at the
     bound, counting propagation)."""
-    con = catalog._con
-    cells = con.execute("SELECT count(*) FROM growth_cell WHERE job_id = ?", (job,)).fetchone()[0]
-    rows = con.execute("SELECT n, k, bound, outcome FROM growth_cell WHERE job_id = ? AND "
-                       "state = 'done'", (job,)).fetchall()
+    cells = plan.cell_count(catalog, job)
+    rows = plan.done_cells(catalog, job)
     state = _State(catalog)
     return {"cells": int(cells), "done": len(rows),
             "improved": sum(1 for r in rows if r[3] == "improved"),
@@ -352,7 +321,7 @@ def job_status(catalog: Any, job: int) -> dict[str, int]:
 
 
 # ------------------------------------------------------------------ the job
-def _start_payload(catalog: Any, n: int, k: int) -> list[Any] | None:
+def _start_payload(catalog: Catalog, n: int, k: int) -> list[Any] | None:
     entry = catalog.pick(n=n, k=k, claims=False)
     if entry is None:
         return None
@@ -361,10 +330,8 @@ def _start_payload(catalog: Any, n: int, k: int) -> list[Any] | None:
             code.k]
 
 
-def _save(catalog: Any, out: dict[str, Any], seed: int) -> int:
+def _save(catalog: Catalog, out: dict[str, Any], seed: int) -> int:
     """Store a task's code (proved facts only) and return the entry id."""
-    from .code import Code
-
     n, k = int(out["n"]), int(out["k"])
     code = Code.from_packed(np.frombuffer(out["rows"], dtype=np.uint64).reshape(k, -1), n)
     proof = {"method": "search", "strategy": out["strategy"]}
@@ -376,7 +343,7 @@ def _save(catalog: Any, out: dict[str, Any], seed: int) -> int:
                        seed=seed)
 
 
-def grow(catalog: Any, cells: Sequence[tuple[int, int]], *, max_steps: int | None = 200,
+def grow(catalog: Catalog, cells: Sequence[tuple[int, int]], *, max_steps: int | None = 200,
          time_limit: float | None = None, seed: int = 0,
          strategies: Sequence[str] | None = None, executor: Any = None, batch: int = 8,
          max_cells: int | None = None, job_time_limit: float | None = None,
@@ -419,10 +386,8 @@ def grow(catalog: Any, cells: Sequence[tuple[int, int]], *, max_steps: int | Non
         On Ctrl-C (``KeyboardInterrupt``) the proved codes already found are kept and
         the summary says ``stopped = "interrupted"``.
     """
-    from .search import resolve_strategies
-
-    names = list(GROWTH_STRATEGIES if strategies is None else strategies)
-    names = [s.name for s in resolve_strategies(names)]
+    names = [s.name for s in resolve_strategies(
+        list(GROWTH_STRATEGIES if strategies is None else strategies))]
     if max_steps is not None:
         max_steps = check_int("max_steps", max_steps, minimum=1)
     if max_steps is None and time_limit is None:
@@ -436,76 +401,98 @@ def grow(catalog: Any, cells: Sequence[tuple[int, int]], *, max_steps: int | Non
     seed = check_int("seed", seed, minimum=0)
     cells = sorted({(check_int("n", n, minimum=1), check_int("k", k, minimum=1))
                     for n, k in cells})
-    state = _State(catalog)
     spec = _spec(cells, max_steps, time_limit, seed, names)
-    job, already = _plan(catalog, state, spec)
-    total = catalog._con.execute("SELECT count(*) FROM growth_cell WHERE job_id = ?",
-                                 (job,)).fetchone()[0]
-    summary = GrowthSummary(job=job, cells=int(total), resumed=already, done=already)
-    status = job_status(catalog, job)
-    summary.improved, summary.closed = status["improved"], status["closed"]
-    t0 = time.perf_counter()
-    finished_here = 0
+    run = _Run(catalog, spec, progress=progress, on_cell=on_cell)
+    try:
+        while not run.stop(max_cells, job_time_limit):
+            room = batch if max_cells is None else min(batch, max_cells - run.finished_here)
+            chosen = run.next_batch(room, max_cells)
+            if chosen is None:
+                break
+            if chosen:
+                _run_batch(catalog, chosen, executor, run.state, seed, run.finish)
+    except KeyboardInterrupt:
+        run.summary.stopped = "interrupted"
+    return run.close()
 
-    def finish(res: CellResult) -> None:
-        nonlocal finished_here
-        _finish(catalog, job, res)
-        finished_here += 1
+
+class _Run:
+    """One run of a growth job: its plan, its summary, and the steps of its loop."""
+
+    def __init__(self, catalog: Catalog, spec: dict[str, Any], *,
+                 progress: GrowthProgress | None, on_cell: OnCell | None) -> None:
+        self.catalog, self.spec = catalog, spec
+        self.state = _State(catalog)
+        self.job, already = _plan(catalog, self.state, spec)
+        self.summary = GrowthSummary(job=self.job, cells=plan.cell_count(catalog, self.job),
+                                     resumed=already, done=already)
+        self._count()
+        self.progress, self.on_cell = progress, on_cell
+        self.clock = Clock(None)
+        self.finished_here = 0
+
+    def _count(self) -> None:
+        status = job_status(self.catalog, self.job)  # counts propagation from codes found
+        self.summary.improved, self.summary.closed = status["improved"], status["closed"]
+
+    def stop(self, max_cells: int | None, job_time_limit: float | None) -> bool:
+        """Whether a limit of this run is reached (and the summary says which)."""
+        if max_cells is not None and self.finished_here >= max_cells:
+            self.summary.stopped = "cell limit"
+        elif job_time_limit is not None and self.clock.elapsed() > job_time_limit:
+            self.summary.stopped = "time limit"
+        return bool(self.summary.stopped)
+
+    def finish(self, res: CellResult) -> None:
+        """Record a finished cell (in the plan and the summary) and report it."""
+        _finish(self.catalog, self.job, res)
+        self.finished_here += 1
+        summary = self.summary
         summary.done += 1
         summary.improved += res.outcome == "improved"
         summary.closed += res.at_bound
         summary.results.append(res)
-        summary.seconds = time.perf_counter() - t0
+        summary.seconds = self.clock.elapsed()
         left = summary.cells - summary.done
-        summary.eta = summary.seconds / finished_here * left if left else 0.0
-        if on_cell is not None:
-            on_cell(res)
-        if progress is not None:
-            progress(summary)
+        summary.eta = summary.seconds / self.finished_here * left if left else 0.0
+        if self.on_cell is not None:
+            self.on_cell(res)
+        if self.progress is not None:
+            self.progress(summary)
 
-    try:
-        while True:
-            if max_cells is not None and finished_here >= max_cells:
-                summary.stopped = "cell limit"
-                break
-            if job_time_limit is not None and time.perf_counter() - t0 > job_time_limit:
-                summary.stopped = "time limit"
-                break
-            room = batch if max_cells is None else min(batch, max_cells - finished_here)
-            chosen: list[dict[str, Any]] = []
-            for n, k in _pending(catalog, job):
-                bound, by = state.bound(n, k)
-                d = state.d(n, k)
-                if d >= bound:  # closed by propagation from a code stored since planning
-                    finish(CellResult(n, k, d, d, bound, by, "closed", stopped="propagation"))
-                    if max_cells is not None and finished_here >= max_cells:
-                        break
-                    continue
-                chosen.append({"n": n, "k": k, "d_before": d,
-                               "start": _start_payload(catalog, n, k),
-                               "max_steps": max_steps, "time_limit": time_limit,
-                               "seed": seed * 1_000_003 + n * 1009 + k,
-                               "strategies": names})
-                if len(chosen) >= room:
-                    break
-            if not chosen:
-                if not _pending(catalog, job):
-                    summary.stopped = "finished"
-                    with catalog._write() as cur:
-                        cur.execute("UPDATE growth_job SET finished_at = ? WHERE id = ? AND "
-                                    "finished_at IS NULL", (_now(), job))
+    def next_batch(self, room: int, max_cells: int | None) -> list[dict[str, Any]] | None:
+        """Up to ``room`` task payloads of pending open cells, in rank order; pending cells
+        that propagation has closed are finished on the way. None when the job is done."""
+        chosen: list[dict[str, Any]] = []
+        spec, state = self.spec, self.state
+        for n, k in plan.pending_cells(self.catalog, self.job):
+            bound, by = state.bound(n, k)
+            d = state.d(n, k)
+            if d >= bound:  # closed by propagation from a code stored since planning
+                self.finish(CellResult(n, k, d, d, bound, by, "closed", stopped="propagation"))
+                if max_cells is not None and self.finished_here >= max_cells:
                     break
                 continue
-            _run_batch(catalog, chosen, executor, state, seed, finish)
-    except KeyboardInterrupt:
-        summary.stopped = "interrupted"
-    status = job_status(catalog, job)  # counts propagation from codes found after a cell
-    summary.improved, summary.closed = status["improved"], status["closed"]
-    summary.seconds = time.perf_counter() - t0
-    return summary
+            chosen.append({"n": n, "k": k, "d_before": d,
+                           "start": _start_payload(self.catalog, n, k),
+                           "max_steps": spec["max_steps"], "time_limit": spec["time_limit"],
+                           "seed": spec["seed"] * 1_000_003 + n * 1009 + k,
+                           "strategies": spec["strategies"]})
+            if len(chosen) >= room:
+                break
+        if not chosen and not plan.pending_cells(self.catalog, self.job):
+            self.summary.stopped = "finished"
+            plan.finish_job(self.catalog, self.job)
+            return None
+        return chosen
+
+    def close(self) -> GrowthSummary:
+        self._count()
+        self.summary.seconds = self.clock.elapsed()
+        return self.summary
 
 
-def _run_batch(catalog: Any, chosen: list[dict[str, Any]], executor: Any, state: _State,
+def _run_batch(catalog: Catalog, chosen: list[dict[str, Any]], executor: Any, state: _State,
                seed: int, finish: Callable[[CellResult], None]) -> None:
     """Search the batch; save and finish each cell as its result arrives."""
     if executor is None:
@@ -625,7 +612,7 @@ def _recipe_text(recipes: Sequence[dict[str, Any]]) -> str:
     return f"{item['source']}: {text}{extra}"
 
 
-def region_standing(catalog: Any, cells: Sequence[tuple[int, int]]) -> RegionStanding:
+def region_standing(catalog: Catalog, cells: Sequence[tuple[int, int]]) -> RegionStanding:
     """Summarise a region: cells at the best proved upper bound, within 1, and for
     every open cell each side's best evidence (code and recipe; bound and its rule).
 
@@ -650,7 +637,11 @@ def region_standing(catalog: Any, cells: Sequence[tuple[int, int]]) -> RegionSta
         if entry is None:
             code, recipe = "none", "-"
         else:
-            base = entry if entry.derived_from is None else catalog.get(entry.base_id)
+            if entry.derived_from is None:
+                base = entry
+            else:
+                assert entry.base_id is not None  # a derived answer names its base entry
+                base = catalog.get(entry.base_id)
             code = (f"entry {entry.id}" if entry.derived_from is None
                     else entry.derived_from)
             recipe = _recipe_text(base.recipes)

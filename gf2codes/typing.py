@@ -18,8 +18,8 @@ if TYPE_CHECKING:  # numpy is not imported at run time: `gf2codes --help` needs 
 
 __all__ = [
     "Question", "QUESTIONS", "DistanceMethod", "DISTANCE_METHODS", "StopReason",
-    "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "SeedLike", "BoundKind",
-    "VerifyMethod", "VERIFY_METHODS", "DecoderName", "IntervalName",
+    "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "FactsSide", "SeedLike",
+    "BoundKind", "VerifyMethod", "VERIFY_METHODS", "DecoderName", "IntervalName",
 ]
 
 #: What a search optimises with the other two of n, k, d fixed: the shortest ``length``
@@ -60,6 +60,11 @@ Outcome = Literal["improved", "unchanged", "closed"]
 
 #: Which side of a code a computation used: the code itself or its dual.
 Side = Literal["code", "dual"]
+
+#: Where the equivalence facts of a code come from (:class:`gf2codes.equivalence.CodeFacts`):
+#: the light-word graph of one :data:`Side`, the whole space ``full``, ``coarse`` (no graph:
+#: too large), or ``trusted`` (the invariant read from a record, the graph not built yet).
+FactsSide = Side | Literal["full", "coarse", "trusted"]
 
 #: A seed for the random functions: an int >= 0, a numpy Generator, or None (fresh).
 SeedLike = Union[int, "np.random.Generator", None]

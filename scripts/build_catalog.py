@@ -49,12 +49,8 @@ ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
 from gf2codes import families as F  # noqa: E402
-from gf2codes.catalog import (  # noqa: E402
-    _reach_d,
-    _reach_n,
-    derivation_steps,
-    open_catalog,
-)
+from gf2codes.catalog import derivation_steps, open_catalog  # noqa: E402
+from gf2codes.catalog.propagation import reach_distance, reach_length  # noqa: E402
 from gf2codes.code import Code  # noqa: E402
 from gf2codes.derive import construction_x, plotkin_sum, rebuild, recipe_of  # noqa: E402
 from gf2codes.distance import minimum_distance  # noqa: E402
@@ -96,7 +92,7 @@ class Pool:
         D, who = {}, {}
         for n in range(1, N_MAX + 1):
             for k in range(1, n + 1):
-                dv = _reach_d(N0, K0, L0, n, k)
+                dv = reach_distance(N0, K0, L0, n, k)
                 D[n, k] = int(dv.max())
                 who[n, k] = int(dv.argmax())
         return D, who
@@ -240,12 +236,12 @@ def select(pool: Pool) -> list[int]:
     """Indices of the candidates that propagation does not make redundant."""
     N0, K0, L0 = pool.arrays()
     cells = [(n, k) for n in range(1, N_MAX + 1) for k in range(1, n + 1)]
-    reach = np.array([_reach_d(N0, K0, L0, n, k) for n, k in cells]).T  # (items, cells)
+    reach = np.array([reach_distance(N0, K0, L0, n, k) for n, k in cells]).T  # (items, cells)
     best = reach.max(axis=0)
     attains = reach == best[None, :]
     # and, for the short-message targets k <= 64, 3 <= d <= TARGET_D_MAX, the shortest
     # code of any length (up to 128): a catalog answers "(k, d) -> n" at once
-    lengths = np.array([_reach_n(N0, K0, L0, k, d) for k in range(1, N_MAX + 1)
+    lengths = np.array([reach_length(N0, K0, L0, k, d) for k in range(1, N_MAX + 1)
                         for d in range(3, TARGET_D_MAX + 1)]).T  # (items, targets)
     shortest = lengths.min(axis=0)
     reached = shortest < np.iinfo(np.int64).max
@@ -335,7 +331,7 @@ def main() -> int:
         write_records(pool, keep, db)
         log("records stored; growth phase")
         with open_catalog(db, shipped=False) as cat:
-            first_new = int(cat._con.execute("SELECT max(id) FROM entry").fetchone()[0]) + 1
+            first_new = int(cat.query("SELECT max(id) FROM entry")[0][0]) + 1
         if args.max_cells > 0:
             grow_phase(db, args, log)
         with open_catalog(db, shipped=False) as cat:

@@ -82,3 +82,22 @@ def test_missing_file_and_bad_npy(tmp_path):
     with pytest.raises(ParseError, match="not a text matrix"):
         (tmp_path / "b.bin").write_bytes(b"\xff\xfe\x00\x01")
         read_code(tmp_path / "b.bin")
+
+
+def test_entry_and_code_records_share_their_field_checks():
+    """One parser: an entry record's d fields and 0/1 rows get the code record's checks
+    (messages written in this test from formats._distance_field and _strings_to_rows)."""
+    from gf2codes.formats import parse_entry_record, record_to_code
+
+    entry = {"record": "gf2codes/catalog-entry", "n": 3, "k": 1, "generator": ["111"],
+             "d": 4}
+    code = {"record": "gf2codes/code", "generator": ["111"], "d": 4}
+    for obj in (entry, code):
+        with pytest.raises(ParseError, match="'d' must be from 1 to n = 3, not 4"):
+            parse_entry_record(obj, "r")
+    with pytest.raises(ParseError, match="'d' must be from 1 to n = 3, not 4"):
+        record_to_code(code, "r")
+    bad_row = {**entry, "d": 3, "generator": ["1x1"]}
+    with pytest.raises(ParseError, match=r"r \(generator\), row 1"):
+        parse_entry_record(bad_row, "r")
+    assert parse_entry_record({**entry, "d": 3}, "r").d_lower == 3

@@ -323,7 +323,7 @@ def test_verify_dash_reads_standard_input():
 
 
 def test_equivalent_undecided_has_its_own_status(tmp_path, capsys, monkeypatch):
-    from gf2codes import catalog
+    from gf2codes import equivalence
     from gf2codes.cli import _equivalent
 
     class Undecided:
@@ -331,7 +331,7 @@ def test_equivalent_undecided_has_its_own_status(tmp_path, capsys, monkeypatch):
         permutation = None
         reason = "the search budget ran out"
 
-    monkeypatch.setattr(catalog, "are_equivalent", lambda a, b: Undecided())
+    monkeypatch.setattr(equivalence, "are_equivalent", lambda a, b: Undecided())
     f = _write_json(tmp_path / "h.json", _record())
     assert main(["equivalent", str(f), str(f)]) == _equivalent.UNDECIDED == 4
     assert "undecided" in capsys.readouterr().out

@@ -22,7 +22,8 @@ import pytest
 
 from gf2codes import catalog as C
 from gf2codes import families as F
-from gf2codes.catalog import Provenance, open_catalog
+from gf2codes import linalg
+from gf2codes.catalog import Provenance, checks, open_catalog
 from gf2codes.code import Code
 from gf2codes.distance import distance_upper_bound, minimum_distance
 from gf2codes.exceptions import CatalogError, ParseError
@@ -125,7 +126,7 @@ def test_unexposed_lie_is_stored_as_a_claim_and_every_answer_says_so(cli, tmp_pa
                                                                        monkeypatch):
     code, true_d, one = _big_code()
     assert one > true_d  # the lie below is one that a single information set misses
-    monkeypatch.setattr(C, "_CHEAP_ISD_ITERATIONS", 1)
+    monkeypatch.setattr(checks, "CHEAP_ISD_ITERATIONS", 1)
     # the lie alone: the shipped seed's own checked claims reach [64, 32] too
     monkeypatch.setenv("GF2CODES_SHIPPED_CATALOG", "none")
     lie = tmp_path / "claim.jsonl"
@@ -207,7 +208,7 @@ def test_migration_from_schema_2_marks_old_entries_as_claims(tmp_path):
             con.execute(statement)
     h = F.hamming(3)
     f = C.code_facts(h)
-    rows = C.linalg.rref(h.packed_generator, n=7).sorted().rows
+    rows = linalg.rref(h.packed_generator, n=7).sorted().rows
     con.execute("INSERT INTO entry (n, k, d_lower, d_upper, generator, subspace, weights, "
                 "invariant, added_at, added_by, origin) VALUES (7, 4, 3, 3, ?, ?, ?, ?, "
                 "'then', '0.1.0', 'user')",
@@ -302,7 +303,7 @@ def test_read_only_catalog_simulated(cli, tmp_path, capsys, monkeypatch):
     """As root chmod does not stop writes, so the permission check itself is simulated."""
     path = _readonly_catalog(tmp_path)
     real = os.access
-    monkeypatch.setattr(C.os, "access", lambda p, mode: False if mode & os.W_OK
+    monkeypatch.setattr(os, "access", lambda p, mode: False if mode & os.W_OK
                         else real(p, mode))
     cat = ["--catalog", str(path)]
     for argv in (["list"], ["show", "1"], ["pick", "--k", "12", "--d", "8"], ["info"],

@@ -226,9 +226,9 @@ def _add(cat, args) -> int:
                            "pass --allow-interval to store the interval.")
     proof = {"method": result.method, "seconds": round(result.seconds, 3),
              "codewords": int(result.codewords)}
-    eid, status = cat._add(code, d=result.lower, proved=result.exact, recipe=None,
-                           source=args.source, seed=args.seed, d_upper=result.upper,
-                           proof=proof)
+    eid, status = cat.add_or_merge(code, d=result.lower, proved=result.exact, recipe=None,
+                                   source=args.source, seed=args.seed, d_upper=result.upper,
+                                   proof=proof)
     entry = cat.get(eid)
     if args.json:
         print_json({"id": eid, "status": status, "n": entry.n, "k": entry.k,

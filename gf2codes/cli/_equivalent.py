@@ -38,7 +38,7 @@ UNDECIDED = 4
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..catalog import are_equivalent
+    from ..equivalence import are_equivalent
     from ..formats import read_code
 
     a = read_code(args.a, parity_check=args.parity_check).code
