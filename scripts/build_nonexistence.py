@@ -25,7 +25,7 @@ from gf2codes import bounds as B
 from gf2codes.catalog import open_catalog
 from gf2codes.existence import decide_existence
 
-OUT = Path(B.__file__).with_name("_nonexistence.jsonl")
+OUT = Path(B.NONEXISTENCE_FILE)
 
 
 def open_cells(cat, max_n: int) -> list[dict]:
@@ -63,7 +63,7 @@ def main() -> None:
                     lines = [json.dumps({"n": a, "k": b, "d": c, "nodes": v})
                              for (a, b, c), v in sorted(facts.items())]
                     OUT.write_text("\n".join(lines) + "\n")
-                    B._reset_tables()
+                    B.reset_tables()
                     progress = True
                     break
                 if dec.status == "exists":

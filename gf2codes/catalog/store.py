@@ -349,34 +349,13 @@ class Catalog:
 
     def length_table(self, dimensions: Iterable[int], distances: Iterable[int]
                      ) -> list[dict[str, Any]]:
-        """The shortest length on file for every ``k`` in ``dimensions`` and ``d`` in
-        ``distances``, beside the least length the bounds allow.
-
-        Each row, in order of ``k`` then ``d``::
-
-            {"k", "d", "n", "entry", "stored", "d_proved", "n_least", "least_by", "gap",
-             "claimed_n"}
-
-        ``n`` is the least length of a stored or derived ``[n, k, >= d]`` code (None when
-        the catalog has none), ``entry`` the stored entry it is (or is derived from),
-        ``stored`` whether it is that entry itself, ``d_proved`` whether that entry's
-        distance is proved exactly; ``n_least`` and ``least_by`` are
-        :func:`gf2codes.bounds.least_length`; ``gap = n - n_least`` (0: the length on file
-        is proved shortest; None when nothing is on file). Only entries proved here count;
-        ``claimed_n`` is the shorter length that a claimed (unproved) entry states, or None.
-        """
+        """:func:`gf2codes.catalog.tables.length_table` of the entries proved here (see
+        there for the rows and their keys)."""
         return tables.length_table(self.arrays(), dimensions, distances)
 
     def distance_table(self, lengths: Iterable[int]) -> list[dict[str, Any]]:
-        """For every ``n`` in ``lengths`` and ``1 <= k <= n``: the greatest proved ``d`` on
-        file (stored or derived, 0 when none), whether it is stored, and the best upper
-        bound. (The command line shows :meth:`length_table` instead.)
-
-        Each row: ``{"n", "k", "d", "exact", "stored", "entry", "bound", "bound_by",
-        "meets_bound", "claimed_d"}``; ``entry`` is the stored id or the base id of a
-        derived value. ``d`` counts only entries proved here; ``claimed_d`` is the greater
-        d that a claimed (unproved) entry states, or None.
-        """
+        """:func:`gf2codes.catalog.tables.distance_table` of the entries proved here (see
+        there for the rows and their keys)."""
         return tables.distance_table(self.arrays(), lengths)
 
     # ---------------------------------------------------------------- writing
