@@ -13,7 +13,6 @@ Four modes, chosen by which options are given:
 
 from __future__ import annotations
 
-import sys
 from typing import Any
 
 from rich.table import Table
@@ -279,5 +278,5 @@ def _run_table(args) -> int:
               "      here (bounds --k K --d D names the bounds of a cell)"]
     settled = sum(c["n_least"] == c["n_exists"] for c in cells)
     lines.append(f"{settled} of {len(cells)} cells settled by the bounds alone")
-    sys.stdout.write("\n".join(lines) + "\n")
+    console.plain("\n".join(lines) + "\n")
     return 0

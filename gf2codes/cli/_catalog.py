@@ -24,21 +24,22 @@ from typing import Any
 
 from ..exceptions import CatalogError, ParameterError, TooExpensiveError, check_int
 from ._common import (
-    _Console,
     check_output_path,
     clean,
     count_arg,
     parse_range,
     print_json,
+    say,
     seconds_arg,
     seconds_or_zero_arg,
     seed_arg,
+    text_console,
     write_output,
 )
 from ._text import length_grid, matrix_block, triple_text, weight_text
 
 # Plain text: codes print as [n, k, d], which rich would take for markup.
-console = _Console(highlight=False, markup=False)  # the shared broken-pipe rule
+console = text_console
 
 __all__ = ["register", "run"]
 
@@ -198,8 +199,8 @@ def run(args: argparse.Namespace) -> int:
             raise CatalogError(f"{path}: no catalog there; nothing was created (the first "
                                "'catalog add', 'catalog import' or 'search' creates it with "
                                "the shipped seed).") from None
-        print(f"note: no catalog at {path} (nothing was created); answering from the "
-              "shipped seed.", file=sys.stderr)
+        say(f"note: no catalog at {path} (nothing was created); answering from the "
+            "shipped seed.", err=True)
         cat = open_catalog(":memory:")
     with cat:
         return handler(cat, args)
@@ -315,7 +316,7 @@ def _show(cat, args) -> int:
     block = matrix_block(rows_to_strings(entry.code.rref_generator),
                          f"entry {entry.id}: generator matrix in reduced echelon form, "
                          f"{entry.k} x {entry.n}")
-    sys.stdout.write("\n".join(block) + "\n")
+    console.plain("\n".join(block) + "\n")
     return 0
 
 
@@ -370,7 +371,7 @@ def _pick(cat, args) -> int:
         shown = label if exact is None else f"[{entry.n}, {entry.k}, {exact}]"
         block = matrix_block(rows_to_strings(entry.code.G),
                              f"generator matrix of {shown}, {entry.k} x {entry.n}")
-        sys.stdout.write("\n".join(block) + "\n")
+        console.plain("\n".join(block) + "\n")
     return 0
 
 
@@ -428,7 +429,7 @@ def _table(cat, args) -> int:
     if claims:
         out.append(f"{len(claims)} cell(s) have a shorter length only claimed by unproved "
                    "entries (not counted; 'gf2codes catalog prove' proves them)")
-    sys.stdout.write("\n".join(out) + "\n")
+    console.plain("\n".join(out) + "\n")
     return 0
 
 
@@ -470,7 +471,7 @@ def _import(cat, args) -> int:
                     "errors": [{"line": ln, "message": m} for ln, m in report.errors]})
     else:
         for _, message in report.errors:
-            print(message, file=sys.stderr)
+            say(message, err=True)
         console.print(f"{report.added} added, {report.merged} merged into existing entries, "
                       f"{report.unchanged} already present, {len(report.errors)} rejected")
         claims = report.status.get("checked", 0) + report.status.get("claimed", 0)

@@ -219,6 +219,14 @@ class _Console(Console):
 
 console = _Console(highlight=False)
 err_console = _Console(stderr=True, highlight=False)
+#: For commands whose text holds "[n, k, d]" and "p[j]", which rich would take for markup.
+text_console = _Console(highlight=False, markup=False)
+
+
+def say(text: str = "", *, err: bool = False) -> None:
+    """One plain line (``text`` as it is, then a newline) on standard output or error,
+    through the shared consoles (and so the shared broken-pipe rule)."""
+    (err_console if err else console).plain(text + "\n")
 
 
 def add_json_flag(parser) -> None:

@@ -10,10 +10,10 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from ._common import _Console, add_json_flag, print_json
+from ._common import add_json_flag, print_json, text_console
 
 # Plain text: "p[j]" and "[n, k]" are not markup.
-console = _Console(highlight=False, markup=False)  # the shared broken-pipe rule
+console = text_console
 
 __all__ = ["register", "run"]
 

@@ -11,11 +11,10 @@ Exit status: 0; 2 for errors.
 from __future__ import annotations
 
 import json
-import sys
 from typing import Any
 
 from ..exceptions import ParameterError
-from ._common import parse_range
+from ._common import console, parse_range, say
 
 __all__ = ["register", "run"]
 
@@ -56,25 +55,25 @@ def run(args: Any) -> int:
         cells = region_cells(lengths=lengths, dimensions=dims)
         st = region_standing(cat, cells)
     if args.json:
-        sys.stdout.write(json.dumps(st.to_dict(limit)) + "\n")
+        console.plain(json.dumps(st.to_dict(limit)) + "\n")
         return 0
     region = f"n {args.n}" + (f", k {args.k}" if args.k else "")
-    print(f"region        {region}: {st.cells} cells")
-    print(f"at the bound  {st.at_bound} ({_pct(st.at_bound, st.cells)}): the proved d meets "
+    say(f"region        {region}: {st.cells} cells")
+    say(f"at the bound  {st.at_bound} ({_pct(st.at_bound, st.cells)}): the proved d meets "
           "the best proved upper bound")
-    print(f"within 1      {st.within_one} ({_pct(st.within_one, st.cells)})")
-    print(f"open          {len(st.open)}; largest gap {st.open[0].gap if st.open else 0}"
+    say(f"within 1      {st.within_one} ({_pct(st.within_one, st.cells)})")
+    say(f"open          {len(st.open)}; largest gap {st.open[0].gap if st.open else 0}"
           + (f"; {st.unknown} cells with no code" if st.unknown else ""))
     shown = st.open if limit is None else st.open[:limit]
     if shown:
-        print()
-        print("In an open cell, d is only a lower bound on the best possible distance and the "
+        say()
+        say("In an open cell, d is only a lower bound on the best possible distance and the "
               "bound only an upper one: the truth lies between.")
-        print(f"{'n':>4} {'k':>4} {'d':>4} {'bound':>5} {'gap':>4}  bound by / code / recipe")
+        say(f"{'n':>4} {'k':>4} {'d':>4} {'bound':>5} {'gap':>4}  bound by / code / recipe")
         for c in shown:
-            print(f"{c.n:>4} {c.k:>4} {c.d:>4} {c.bound:>5} {c.gap:>4}  {c.bound_by}")
-            print(f"{'':>25}{c.code}")
-            print(f"{'':>25}{c.recipe}")
+            say(f"{c.n:>4} {c.k:>4} {c.d:>4} {c.bound:>5} {c.gap:>4}  {c.bound_by}")
+            say(f"{'':>25}{c.code}")
+            say(f"{'':>25}{c.recipe}")
         if len(shown) < len(st.open):
-            print(f"... {len(st.open) - len(shown)} more open cells (--show -1 lists all)")
+            say(f"... {len(st.open) - len(shown)} more open cells (--show -1 lists all)")
     return 0

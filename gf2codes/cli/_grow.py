@@ -11,7 +11,14 @@ import sys
 from typing import Any
 
 from ..exceptions import ParameterError
-from ._common import add_executor_options, err_console, executor_from_args, parse_range
+from ._common import (
+    add_executor_options,
+    console,
+    err_console,
+    executor_from_args,
+    parse_range,
+    say,
+)
 
 __all__ = ["register", "run"]
 
@@ -112,7 +119,7 @@ def run(args: Any) -> int:
 
         def on_cell(res: Any) -> None:
             if args.json:
-                sys.stdout.write(json.dumps(res.to_dict()) + "\n")
+                console.plain(json.dumps(res.to_dict()) + "\n")
                 sys.stdout.flush()
             elif res.outcome == "improved":
                 line = (f"[{res.n}, {res.k}] d {res.d_before} -> {res.d_found} "
@@ -120,7 +127,7 @@ def run(args: Any) -> int:
                 if display is not None and display._bar is not None:
                     display._bar.console.print(line, highlight=False, markup=False)
                 else:
-                    print(line, flush=True)
+                    say(line)
 
         def progress(s: Any) -> None:
             nonlocal display
@@ -140,10 +147,10 @@ def run(args: Any) -> int:
             if executor is not None:
                 executor.close()
     if args.json:
-        sys.stdout.write(json.dumps({"job": summary.to_dict()}) + "\n")
+        console.plain(json.dumps({"job": summary.to_dict()}) + "\n")
     else:
         again = "" if summary.stopped == "finished" else " (run the same command to continue)"
-        print(f"job {summary.job}: {summary.done} of {summary.cells} open cells done "
+        say(f"job {summary.job}: {summary.done} of {summary.cells} open cells done "
               f"({summary.resumed} in earlier runs), {summary.improved} improved, "
               f"{summary.closed} now at the bound; {summary.stopped} after "
               f"{summary.seconds:.1f} s{again}.")

@@ -187,4 +187,4 @@ def _print(r: S.SearchResult) -> None:
     block = matrix_block(formats.rows_to_strings(r.code.G),
                          f"generator matrix of the {shown} code found, {r.k} x {r.n}")
     sys.stdout.flush()
-    sys.stdout.write("\n".join(block) + "\n")
+    console.plain("\n".join(block) + "\n")
