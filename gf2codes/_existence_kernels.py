@@ -29,7 +29,9 @@ def existence_dfs(cand, cand_len, pos, tied, rows, sums, offs, sums_len, state,
     ``cand[L, :cand_len[L]]`` are the candidates at depth ``L`` (``pos[L]`` the next to
     try), ``tied[L]`` the tied column pairs, ``sums[offs[t] : offs[t] + sums_len[L, t]]``
     the XORs of the ``t``-sets of the first ``L`` rows (``t < d - 2``: larger sets never
-    enter the test), ``state = [depth, nodes]``.
+    enter the test), ``state = [depth, nodes]`` or ``[depth, nodes, work, max_work]``:
+    with four entries the kernel also counts its work (candidate rows tested times the
+    sums they are tested against) and stops when it reaches ``max_work`` (if > 0).
     Returns 1 (all ``k`` rows chosen: ``rows`` is a witness), 2 (search finished: no
     code) or 0 (budget reached; call again to continue).
     """
@@ -38,17 +40,24 @@ def existence_dfs(cand, cand_len, pos, tied, rows, sums, offs, sums_len, state,
     top = d - 2
     L = state[0]
     nodes = state[1]
+    counted = state.shape[0] >= 4
+    work = state[2] if counted else 0
+    max_work = state[3] if counted else 0
     while True:
         if L == k:
             state[0] = L
             state[1] = nodes
+            if counted:
+                state[2] = work
             return 1
         need = k - L
         pushed = False
         while pos[L] < cand_len[L]:
-            if nodes >= max_nodes:
+            if nodes >= max_nodes or (max_work > 0 and work >= max_work):
                 state[0] = L
                 state[1] = nodes
+                if counted:
+                    state[2] = work
                 return 0
             idx = pos[L]
             pos[L] += 1
@@ -59,6 +68,11 @@ def existence_dfs(cand, cand_len, pos, tied, rows, sums, offs, sums_len, state,
             if y & ~(y << one) & tied[L] & rmask:  # double-lex column rule
                 continue
             cnt = 0
+            if counted:
+                tests = 0
+                for t in range(top):
+                    tests += sums_len[L, t]
+                work += (cand_len[L] - idx - 1) * tests
             for q in range(idx + 1, cand_len[L]):
                 x = cand[L, q] ^ y
                 ok = True
@@ -98,5 +112,7 @@ def existence_dfs(cand, cand_len, pos, tied, rows, sums, offs, sums_len, state,
         if L == 0:
             state[0] = 0
             state[1] = nodes
+            if counted:
+                state[2] = work
             return 2
         L -= 1

@@ -158,7 +158,8 @@ class ExistenceDecision:
 def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_NODE_BUDGET,
                      time_limit: float | None = None,
                      progress: Progress | None = None,
-                     compiled: bool = True) -> ExistenceDecision:
+                     compiled: bool = True,
+                     max_work: int | None = None) -> ExistenceDecision:
     """Decide by exhaustive search whether a binary linear ``[n, k, >= d]`` code exists.
 
     Parameters
@@ -176,6 +177,12 @@ def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_
     compiled : bool
         Run the compiled kernel (default) or its plain-Python twin (for the tests; the
         same search, node for node).
+    max_work : int or None
+        A second budget, in candidate-row tests (a candidate tested against the sums of
+        the earlier rows counts once per sum): nodes near the root cost far more than deep
+        ones, so this bounds the time of a decision where a node budget cannot. Compiled
+        search only; ``"undecided"`` (``stopped="work budget"``) when used up. Machine
+        independent, like the node budget.
 
     Returns
     -------
@@ -209,6 +216,10 @@ def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_
                              f"exhaustive decision, not {r}.")
     if max_nodes is not None:
         max_nodes = check_int("max_nodes", max_nodes, minimum=1)
+    if max_work is not None:
+        max_work = check_int("max_work", max_work, minimum=1)
+        if not compiled:
+            raise ParameterError("Argument 'max_work' needs the compiled search.")
     if time_limit is not None and (isinstance(time_limit, bool)
                                    or not isinstance(time_limit, (int, float))
                                    or not time_limit > 0):
@@ -229,7 +240,7 @@ def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_
     if r == 0:  # k = n: the full space has d = 1
         return immediate("none", None)
     if compiled:
-        return _decide_compiled(n, k, d, max_nodes, time_limit, progress, start)
+        return _decide_compiled(n, k, d, max_nodes, time_limit, progress, start, max_work)
     search = _Backtrack(n, k, d, max_nodes, time_limit, progress, start)
     try:
         witness = search.run()
@@ -250,7 +261,8 @@ _CHUNK = 4096  # nodes per call of the kernel between clock checks
 
 
 def _decide_compiled(n: int, k: int, d: int, max_nodes: int | None, time_limit: float | None,
-                     progress: Progress | None, start: float) -> ExistenceDecision:
+                     progress: Progress | None, start: float,
+                     max_work: int | None = None) -> ExistenceDecision:
     """The same search as :class:`_Backtrack`, run by the compiled kernel in chunks."""
     import numpy as np
 
@@ -283,7 +295,8 @@ def _decide_compiled(n: int, k: int, d: int, max_nodes: int | None, time_limit: 
     sums = np.zeros(max(sum(cap), 1), dtype=np.uint64)  # sums[offs[0]] = 0: the empty set
     sums_len = np.zeros((k + 1, max(top, 1)), dtype=np.int64)
     sums_len[0, 0] = 1
-    state = np.array([0, 1], dtype=np.int64)  # depth, nodes (the root counts as one)
+    # depth, nodes (the root counts as one), work, work budget (0: none)
+    state = np.array([0, 1, 0, max_work or 0], dtype=np.int64)
     deadline = None if time_limit is None else start + time_limit
     next_report = start + 0.2
     budget = max_nodes if max_nodes is not None else 1 << 62
@@ -302,6 +315,8 @@ def _decide_compiled(n: int, k: int, d: int, max_nodes: int | None, time_limit: 
                                          time.perf_counter() - start, "finished")
             if nodes >= budget:
                 return undecided("node budget", nodes)
+            if max_work is not None and int(state[2]) >= max_work:
+                return undecided("work budget", nodes)
             if past(deadline):
                 return undecided("time limit", nodes)
             now = time.perf_counter()

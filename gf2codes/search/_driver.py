@@ -203,6 +203,15 @@ class _Stop(Exception):
         self.reason: StopReason = reason
 
 
+#: Work budget of one exhaustive decision inside a search, in candidate-row tests (see
+#: :func:`gf2codes.existence.decide_existence`): about 2-4 s of the compiled backtrack on
+#: one core. A node budget alone let a step-limited search spend hours on a cell with 15
+#: check bits ([33,18,7]: ~30 ms a node near the root, against ~40 us a node for
+#: [26,13,8]). A target that needs more is left to the portfolio, and to
+#: ``gf2codes bounds --n --k --d``, whose budget the user sets.
+EXHAUSTIVE_WORK = 10_000_000_000
+
+
 # ----------------------------------------------------------------------------- driver
 class Driver:
     """One search for one question (see the module docstring); :meth:`run` it once.
@@ -370,6 +379,7 @@ class Driver:
                 return
             self.report(tgt, force=True)
             dec = decide_existence(tn, tk, td, max_nodes=self.exhaustive_nodes,
+                                   max_work=EXHAUSTIVE_WORK,
                                    time_limit=None if left is None else max(left, 1e-3))
             self.stats.setdefault("exhaustive", {"units": 0, "candidates": 0, "wins": 0})
             self.stats["exhaustive"]["units"] += dec.nodes
