@@ -179,6 +179,10 @@ def _kmax_lp_even(n: int, d: int) -> int:
     """
     if d > n:
         return 0
+    if d <= 2:
+        # an even code lies in the even-weight code, of dimension n - 1 (also the LP's
+        # optimum 2^(n-1) at d = 2, which a float certificate cannot reach for large n)
+        return max(n - 1, 0)
     best = min(_kmax_lp_even_at(n, d), _kmax_lp_even_at(n + 1, d))
     if d - 2 >= 2:
         best = min(best, _kmax_lp_even_at(n, d - 2))
