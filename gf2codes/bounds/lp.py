@@ -79,21 +79,33 @@ def _dyadic(x: float, scale: int) -> int:
 def _lp_size_primal_side(n: int, d: int) -> int | None:
     """Certified LP bound on the size of an even binary code of length n, distance >= d.
 
-    Solves, for ``z >= 0`` (``z_j = y_j C(n, j)``), min sum z_j subject to
-    ``sum_j z_j K_j(i)/C(n, j) <= -1`` for every even ``i`` in ``[d, n]``; any such ``z``
-    gives, for every code with distance distribution ``A`` (``A_i >= 0``, zero for odd
-    ``i`` and for ``0 < i < d``, and ``sum_i A_i K_j(i) >= 0`` for all ``j`` by
-    MacWilliams/Delsarte), ``|C| <= 1 + (sum_j y_j C(n, j)) / c`` with
-    ``c = min_i (-sum_j y_j K_j(i)) > 0``. The float ``z`` is rounded to dyadic
-    rationals ``y`` and ``c`` is computed exactly, so the result is a proof.
-    Returns the integer bound, or ``None`` if nothing was proved.
+    Solves, for ``y >= 0``, min ``sum_j y_j C(n, j)`` subject to ``sum_j y_j K_j(i) <= -1``
+    for every even ``i`` in ``[d, n]``; any such ``y`` gives, for every code with distance
+    distribution ``A`` (``A_i >= 0``, zero for odd ``i`` and for ``0 < i < d``, and
+    ``sum_i A_i K_j(i) >= 0`` for all ``j`` by MacWilliams/Delsarte),
+    ``|C| <= 1 + (sum_j y_j C(n, j)) / c`` with ``c = min_i (-sum_j y_j K_j(i)) > 0``.
+    First the well-scaled refined solve of :mod:`gf2codes.bounds._lp_certify` (exact
+    check); if it proves nothing, the plain solve on normalised Krawtchouk values with
+    dyadic rounding (the route that works for small ``n``). Returns the integer bound, or
+    ``None`` if nothing was proved.
     """
+    weights = list(range(d + (d % 2), n + 1, 2))
+    if not weights:
+        return 1
+    from ._lp_certify import solve_refined
+
+    cert = solve_refined(n, d, krawtchouk_table(n))
+    if cert is not None:
+        return cert.size
+    return _lp_size_primal_plain(n, d)
+
+
+def _lp_size_primal_plain(n: int, d: int) -> int | None:
+    """The plain float solve of :func:`_lp_size_primal_side`, rounded and checked exactly."""
     import numpy as np
     from scipy.optimize import linprog  # type: ignore[import-untyped]  # no stubs installed
 
     weights = list(range(d + (d % 2), n + 1, 2))
-    if not weights:
-        return 1
     Q = _krawtchouk_normalised(n)
     js = list(range(1, n // 2 + 1))  # for even weights K_{n-j} = K_j: half the columns
     A_ub = np.array([[Q[j, i] for j in js] for i in weights])
@@ -167,6 +179,10 @@ def _kmax_lp_even(n: int, d: int) -> int:
     """
     if d > n:
         return 0
+    if d <= 2:
+        # an even code lies in the even-weight code, of dimension n - 1 (also the LP's
+        # optimum 2^(n-1) at d = 2, which a float certificate cannot reach for large n)
+        return max(n - 1, 0)
     best = min(_kmax_lp_even_at(n, d), _kmax_lp_even_at(n + 1, d))
     if d - 2 >= 2:
         best = min(best, _kmax_lp_even_at(n, d - 2))
@@ -176,7 +192,7 @@ def _kmax_lp_even(n: int, d: int) -> int:
 #: Certified LP values already proved by this installation (see :mod:`gf2codes._diskcache`):
 #: ``"n,d"`` -> the bound of :func:`_kmax_lp_even_at`. Bump the version whenever the LP or
 #: its certificate changes, so old values are not reused.
-_LP_MEMO = Memo("lp-even", version="1")
+_LP_MEMO = Memo("lp-even", version="2")
 
 
 @memo(65536)
