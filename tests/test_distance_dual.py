@@ -224,3 +224,10 @@ def test_dual_route_unmarking_instead_of_clearing(monkeypatch):
             C = Code(random_code_matrix(rng, n, n - int(rng.integers(4, 11))))
             _check(C, minimum_distance(C, method="dual-columns"), brute_distance(C.G)
                    if C.k <= 16 else minimum_distance(C, method="gray").d)
+
+
+def test_dual_estimate_without_a_codeword_yet():
+    """No codeword known (weight 2^62): the estimate stops at weight n, it does not
+    list 2^62 levels (which took all memory when the route ran without a first word)."""
+    s = _dual.dual_columns_seconds(30, 20, 1 << 62)
+    assert s == _dual.dual_columns_seconds(30, 20, 31) and 0 < s < 1e6

@@ -70,6 +70,7 @@ def dual_columns_seconds(n: int, k: int, goal: int, *, divisor: int = 1,
     r = n - k
     if r > 64:
         return math.inf
+    goal = min(goal, n + 1)  # no weight exceeds n (and "no codeword yet" is 2^62)
     low, buckets = _dual_layout(r)
     nbytes = max(8, (1 << low) // 8)
     total = 0.0
