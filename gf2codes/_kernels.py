@@ -157,51 +157,64 @@ def next_combination(c, first, p, m):  # pragma: no cover - compiled
     return i
 
 
-@kernel(inline="always")
-def _weight(s, W):  # pragma: no cover - compiled
-    wt = np.uint64(0)
-    for w in range(W):
-        wt += popcount64(s[w])
-    return wt
+#: Codewords per block of the multi-word scans (``W > 2``): their weights are summed
+#: word by word into a scratch array of this length, so every pass is a contiguous,
+#: vectorised loop over one word of the table.
+SCAN_BLOCK = 256
 
 
 @kernel(inline="always")
-def _scan_min(s, T, lo, hi, W):  # pragma: no cover - compiled
-    """Least weight of ``s ^ T[:, i]`` over ``lo <= i < hi`` (vectorised for W <= 2)."""
-    m = np.uint64(1 << 62)
+def _scan_min(P, r, T, lo, hi, W, acc):  # pragma: no cover - compiled
+    """Least weight of ``P[r] ^ T[:, i]`` over ``lo <= i < hi`` (``2**62`` when empty).
+
+    ``P`` holds the words of the fixed part as row ``r`` of a 2-D array and ``T`` is a
+    transposed table (``W`` contiguous rows), so no array view is made here: a view
+    costs reference counting, which in a hot loop over short tables took longer than
+    the scan itself. For ``W <= 2`` the loop is one XOR and one popcount per word and
+    codeword and vectorises; for larger ``W`` the weights of a block of ``SCAN_BLOCK``
+    codewords are summed word by word into ``acc``, each pass a contiguous loop over
+    one word of the table (the loop over the words inside the loop over the codewords
+    does not vectorise: its loads are strided).
+    """
+    m = np.int64(1 << 62)
     if W == 1:
-        s0 = s[0]
-        T0 = T[0]
+        s0 = P[r, 0]
         for i in range(lo, hi):
-            wt = popcount64(s0 ^ T0[i])
+            wt = np.int64(popcount64(s0 ^ T[0, i]))
             if wt < m:
                 m = wt
     elif W == 2:
-        s0 = s[0]
-        s1 = s[1]
-        T0 = T[0]
-        T1 = T[1]
+        s0 = P[r, 0]
+        s1 = P[r, 1]
         for i in range(lo, hi):
-            wt = popcount64(s0 ^ T0[i]) + popcount64(s1 ^ T1[i])
+            wt = np.int64(popcount64(s0 ^ T[0, i]) + popcount64(s1 ^ T[1, i]))
             if wt < m:
                 m = wt
     else:
-        for i in range(lo, hi):
-            wt = np.uint64(0)
-            for w in range(W):
-                wt += popcount64(s[w] ^ T[w, i])
-            if wt < m:
-                m = wt
+        B = acc.shape[0]
+        for i0 in range(lo, hi, B):
+            nb = min(hi - i0, B)
+            s = P[r, 0]
+            for i in range(nb):
+                acc[i] = np.int64(popcount64(s ^ T[0, i0 + i]))
+            for w in range(1, W):
+                s = P[r, w]
+                for i in range(nb):
+                    acc[i] += np.int64(popcount64(s ^ T[w, i0 + i]))
+            for i in range(nb):
+                if acc[i] < m:
+                    m = acc[i]
     return m
 
 
 @kernel(inline="always")
-def _scan_find(s, T, lo, hi, W, target):  # pragma: no cover - compiled
-    """First ``i`` in ``[lo, hi)`` with weight of ``s ^ T[:, i]`` equal to ``target``."""
+def _scan_find(P, r, T, lo, hi, W, target):  # pragma: no cover - compiled
+    """First ``i`` in ``[lo, hi)`` with weight of ``P[r] ^ T[:, i]`` equal to ``target``
+    (-1 when there is none); called once per new least weight, so plain loops."""
     for i in range(lo, hi):
-        wt = np.uint64(0)
+        wt = np.int64(0)
         for w in range(W):
-            wt += popcount64(s[w] ^ T[w, i])
+            wt += np.int64(popcount64(P[r, w] ^ T[w, i]))
         if wt == target:
             return i
     return -1
@@ -248,31 +261,32 @@ def gray_min_weight(OT, TT, g_start, g_stop, stop_at):  # pragma: no cover - com
     W = OT.shape[0]
     a = OT.shape[1]
     nt = TT.shape[1]
-    s = np.zeros(W, dtype=np.uint64)
+    s = np.zeros((1, W), dtype=np.uint64)
+    acc = np.zeros(SCAN_BLOCK, dtype=np.int64)
     g0 = np.uint64(g_start)
     gray = g0 ^ (g0 >> np.uint64(1))
     for j in range(a):
         if (gray >> np.uint64(j)) & np.uint64(1):
             for w in range(W):
-                s[w] ^= OT[w, j]
-    best = np.uint64(1 << 62)
+                s[0, w] ^= OT[w, j]
+    best = np.int64(1 << 62)
     best_gray = np.int64(-1)
     best_inner = np.int64(-1)
     for g in range(g_start, g_stop):
         if g > g_start:
             j = ctz64(np.uint64(g))
             for w in range(W):
-                s[w] ^= OT[w, j]
+                s[0, w] ^= OT[w, j]
         lo = 1 if g == 0 else 0
-        m = _scan_min(s, TT, lo, nt, W)
+        m = _scan_min(s, 0, TT, lo, nt, W, acc)
         if m < best:
             best = m
             gg = np.uint64(g)
             best_gray = np.int64(gg ^ (gg >> np.uint64(1)))
-            best_inner = _scan_find(s, TT, lo, nt, W, m)
-            if np.int64(best) <= stop_at:
+            best_inner = _scan_find(s, 0, TT, lo, nt, W, m)
+            if best <= stop_at:
                 break
-    return np.int64(best), best_gray, best_inner
+    return best, best_gray, best_inner
 
 
 @kernel("int64[::1](uint64[:, ::1], uint64[:, ::1], int64, int64, int64)", nogil=True)
@@ -284,6 +298,7 @@ def gray_weight_histogram(OT, TT, g_start, g_stop, n):  # pragma: no cover - com
     nt = TT.shape[1]
     hist = np.zeros(n + 1, dtype=np.int64)
     s = np.zeros(W, dtype=np.uint64)
+    acc = np.zeros(SCAN_BLOCK, dtype=np.int64)
     g0 = np.uint64(g_start)
     gray = g0 ^ (g0 >> np.uint64(1))
     for j in range(a):
@@ -297,15 +312,35 @@ def gray_weight_histogram(OT, TT, g_start, g_stop, n):  # pragma: no cover - com
                 s[w] ^= OT[w, j]
         if W == 1:
             s0 = s[0]
-            T0 = TT[0]
             for i in range(nt):
-                hist[popcount64(s0 ^ T0[i])] += 1
-        else:
+                hist[popcount64(s0 ^ TT[0, i])] += 1
+        elif W == 2:
+            s0 = s[0]
+            s1 = s[1]
+            for i in range(nt):
+                hist[popcount64(s0 ^ TT[0, i]) + popcount64(s1 ^ TT[1, i])] += 1
+        elif W <= 4:
             for i in range(nt):
                 wt = np.uint64(0)
                 for w in range(W):
                     wt += popcount64(s[w] ^ TT[w, i])
                 hist[wt] += 1
+        else:
+            # long rows: the weights of a block are summed word by word (each pass a
+            # contiguous loop over one word of the table, which vectorises; the loop
+            # over the words inside the loop over the codewords has strided loads),
+            # then counted -- 2.5x faster at W = 16, slower at W = 4
+            for i0 in range(0, nt, SCAN_BLOCK):
+                nb = min(nt - i0, SCAN_BLOCK)
+                s0 = s[0]
+                for i in range(nb):
+                    acc[i] = np.int64(popcount64(s0 ^ TT[0, i0 + i]))
+                for w in range(1, W):
+                    sw = s[w]
+                    for i in range(nb):
+                        acc[i] += np.int64(popcount64(sw ^ TT[w, i0 + i]))
+                for i in range(nb):
+                    hist[acc[i]] += 1
     return hist
 
 
@@ -342,16 +377,16 @@ def combination_min_weight(GT, w, state, budget, stop_at, best_combo, base):  # 
     for l in range(p):
         for q in range(W):
             part[l + 1, q] = part[l, q] ^ GT[q, state[l]]
-    best = np.uint64(1 << 62)
+    acc = np.zeros(SCAN_BLOCK, dtype=np.int64)
+    best = np.int64(1 << 62)
     visited = np.int64(0)
     while True:
         lo = state[p - 1] + 1 if p > 0 else 0
-        s = part[p]
-        m = _scan_min(s, GT, lo, k, W)
+        m = _scan_min(part, p, GT, lo, k, W, acc)
         visited += k - lo
         if m < best:
             best = m
-            i = _scan_find(s, GT, lo, k, W, m)
+            i = _scan_find(part, p, GT, lo, k, W, m)
             for l in range(p):
                 best_combo[l] = state[l]
             best_combo[p] = i
@@ -359,12 +394,12 @@ def combination_min_weight(GT, w, state, budget, stop_at, best_combo, base):  # 
         # a (w - 1)-subset of the first k - 1 rows
         i = next_combination(state, 0, p, k - 1)
         if i < 0:
-            return visited, np.int64(best), True
+            return visited, best, True
         for l in range(i, p):
             for q in range(W):
                 part[l + 1, q] = part[l, q] ^ GT[q, state[l]]
-        if np.int64(best) <= stop_at or visited >= budget:
-            return visited, np.int64(best), False
+        if best <= stop_at or visited >= budget:
+            return visited, best, False
 
 
 @kernel(
@@ -400,26 +435,26 @@ def combination_table_min_weight(AT, w1, state, TT, budget, stop_at, best_combo,
     for l in range(w1):
         for q in range(W):
             part[l + 1, q] = part[l, q] ^ AT[q, state[l]]
-    best = np.uint64(1 << 62)
+    acc = np.zeros(SCAN_BLOCK, dtype=np.int64)
+    best = np.int64(1 << 62)
     best_t = np.int64(-1)
     visited = np.int64(0)
     while True:
-        s = part[w1]
-        m = _scan_min(s, TT, 0, L, W)
+        m = _scan_min(part, w1, TT, 0, L, W, acc)
         visited += L
         if m < best:
             best = m
-            best_t = _scan_find(s, TT, 0, L, W, m)
+            best_t = _scan_find(part, w1, TT, 0, L, W, m)
             for l in range(w1):
                 best_combo[l] = state[l]
         i = next_combination(state, 0, w1, a)
         if i < 0:
-            return visited, np.int64(best), best_t, True
+            return visited, best, best_t, True
         for l in range(i, w1):
             for q in range(W):
                 part[l + 1, q] = part[l, q] ^ AT[q, state[l]]
-        if np.int64(best) <= stop_at or visited >= budget:
-            return visited, np.int64(best), best_t, False
+        if best <= stop_at or visited >= budget:
+            return visited, best, best_t, False
 
 
 @kernel("Tuple((uint64[:, ::1], uint8[:, ::1]))(uint64[:, ::1], int64)", nogil=True)

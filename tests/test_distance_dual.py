@@ -191,3 +191,43 @@ def test_information_sets_are_reported_and_consistent(seed):
     div = C.weight_divisor
     total = -(-sum(s["contribution"] for s in sets) // div) * div
     assert total >= r.d or sets[0]["levels_done"] >= C.k - 1 or r.d <= div
+
+
+@given(st.integers(0, 2**32 - 1), st.integers(0, 5), st.integers(0, 3))
+def test_syndrome_unmark_leaves_the_bitmap_zero(seed, j, top):
+    """Marks of a full scan (in one bucket of top bits), then unmark: nothing is left,
+    and words of other buckets' marks stay zero (issue 15)."""
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(1, 14))
+    r = int(rng.integers(2, 11))
+    low_bits = max(1, r - top)
+    cols = rng.integers(0, 1 << r, size=n, dtype=np.uint64)
+    low = np.uint64((1 << low_bits) - 1)
+    hi = np.uint64(((1 << r) - 1) ^ ((1 << low_bits) - 1))
+    bucket = np.uint64(int(rng.integers(0, 1 << (r - low_bits))) << low_bits)
+    bitmap = np.zeros(max(1, (1 << low_bits) // 64), dtype=np.uint64)
+    _dual_kernels.syndrome_scan(cols, j, 0, n, hi, bucket, low, bitmap, False)
+    visited = _dual_kernels.syndrome_unmark(cols, j, hi, bucket, low, bitmap)
+    assert not bitmap.any()
+    assert visited == (len(list(itertools.combinations(range(n), j))) if j <= n else 0)
+
+
+def test_dual_route_unmarking_instead_of_clearing(monkeypatch):
+    """The route with every pass unmarked rather than cleared (and with buckets)
+    proves the same distances as brute force."""
+    monkeypatch.setattr(_dual, "_UNMARK_COST", 0)
+    rng = np.random.default_rng(12)
+    for bits in (3, 32):
+        monkeypatch.setattr(_dual, "_BITMAP_BITS", bits)
+        for _ in range(15):
+            n = int(rng.integers(10, 26))
+            C = Code(random_code_matrix(rng, n, n - int(rng.integers(4, 11))))
+            _check(C, minimum_distance(C, method="dual-columns"), brute_distance(C.G)
+                   if C.k <= 16 else minimum_distance(C, method="gray").d)
+
+
+def test_dual_estimate_without_a_codeword_yet():
+    """No codeword known (weight 2^62): the estimate stops at weight n, it does not
+    list 2^62 levels (which took all memory when the route ran without a first word)."""
+    s = _dual.dual_columns_seconds(30, 20, 1 << 62)
+    assert s == _dual.dual_columns_seconds(30, 20, 31) and 0 < s < 1e6

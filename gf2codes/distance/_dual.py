@@ -22,8 +22,16 @@ __all__ = ["RATE_DUAL", "dual_columns_seconds", "dual_search"]
 _BITMAP_BITS = 32  # a bitmap of 2^32 bits (512 MiB) at most; beyond, buckets of top bits
 # Measured rates (one core) of the dual-side scan, see scripts/bench_distance.py:
 # subsets enumerated and looked up per second, and bitmap bytes cleared per second.
-RATE_DUAL = 4e8
+# The lookups are random accesses to the bitmap, so the rate falls with its size:
+# (largest bitmap in bytes, subsets per second), measured on 2-core AVX2 code with
+# 255 columns (a bitmap beyond the caches is bound by memory latency, ~20 ns per sum).
+_DUAL_RATES = ((1 << 18, 6e8), (1 << 21, 4e8), (1 << 24, 1e8))
+_RATE_DUAL_MEMORY = 4e7
+RATE_DUAL = _DUAL_RATES[0][1]  # the in-cache rate (kept for the callers that phrase work)
 _RATE_CLEAR = 1e10
+# Bytes of clearing that cost about as much as zeroing the word of one sum (a random
+# write) instead: below, a pass zeroes the words its sums marked (syndrome_unmark).
+_UNMARK_COST = 64
 
 
 def _parity_columns(code: Code) -> np.ndarray | None:
@@ -49,6 +57,12 @@ def _dual_layout(r: int) -> tuple[int, int]:
     return low, 1 << (r - low)
 
 
+def _dual_rate(low: int) -> float:
+    """Subsets per second (one core) with a bitmap of ``2^low`` bits."""
+    nbytes = (1 << low) // 8
+    return next((rate for size, rate in _DUAL_RATES if nbytes <= size), _RATE_DUAL_MEMORY)
+
+
 def dual_columns_seconds(n: int, k: int, goal: int, *, divisor: int = 1,
                          start_lower: int = 1) -> float:
     """Estimated seconds (one core) for the dual-side route to prove ``d >= goal`` on an
@@ -56,13 +70,15 @@ def dual_columns_seconds(n: int, k: int, goal: int, *, divisor: int = 1,
     r = n - k
     if r > 64:
         return math.inf
+    goal = min(goal, n + 1)  # no weight exceeds n (and "no codeword yet" is 2^62)
     low, buckets = _dual_layout(r)
-    clear = buckets * max(8, (1 << low) // 8) / _RATE_CLEAR
+    nbytes = max(8, (1 << low) // 8)
     total = 0.0
     for w in _dual_levels(divisor, start_lower, goal):
         j = w // 2
         scans = math.comb(n, j) + (math.comb(n, w - j) if w - j != j else 0)
-        total += buckets * scans / RATE_DUAL + clear
+        clear = min(nbytes, math.comb(n, j) * _UNMARK_COST) / _RATE_CLEAR  # see unmark
+        total += buckets * (scans / _dual_rate(low) + clear)
     return total
 
 
@@ -144,6 +160,15 @@ def dual_search(code: Code, clock: ProofClock, best: Best, target: int | None,
                 return False, -1, True
         return True, -1, False
 
+    def unmark(j: int, bucket: np.uint64) -> None:
+        """Leave the bitmap zero for the next pass: zero the words the marks of the
+        ``j``-subsets can have touched when they are few (a level of small ``j`` in a
+        bitmap of 512 MiB), else clear it all."""
+        if math.comb(n, j) * _UNMARK_COST < bitmap.nbytes:
+            _dual_kernels.syndrome_unmark(cols, j, hi_mask, bucket, low_mask, bitmap)
+        else:
+            bitmap[:] = 0
+
     try:
         goal = best.weight if target is None else min(best.weight, target)
         for w in range(1, n + 1):
@@ -152,26 +177,28 @@ def dual_search(code: Code, clock: ProofClock, best: Best, target: int | None,
             if w % divisor or w < start_lower:
                 continue
             goal = best.weight if target is None else min(best.weight, target)
-            clock.total = max(clock.done, int(RATE_DUAL * dual_columns_seconds(
+            clock.total = max(clock.done, int(_dual_rate(low) * dual_columns_seconds(
                 n, code.k, goal, divisor=divisor, start_lower=lower)) + clock.done)
             j = w // 2
             hit_word = None
             for b in range(buckets):
                 bucket = np.uint64(b << low)
-                bitmap[:] = 0
-                done, s, late = scan(j, bucket, False)
-                if late:
-                    return lower, "time limit"
-                if s >= 0:
-                    hit_word = _dual_witness(n, cols, 2 * j, s, probed=False)
-                    break
-                if w - j != j:
-                    done, s, late = scan(w - j, bucket, True)
+                try:
+                    done, s, late = scan(j, bucket, False)
                     if late:
                         return lower, "time limit"
                     if s >= 0:
-                        hit_word = _dual_witness(n, cols, w, s, probed=True)
+                        hit_word = _dual_witness(n, cols, 2 * j, s, probed=False)
                         break
+                    if w - j != j:
+                        done, s, late = scan(w - j, bucket, True)
+                        if late:
+                            return lower, "time limit"
+                        if s >= 0:
+                            hit_word = _dual_witness(n, cols, w, s, probed=True)
+                            break
+                finally:
+                    unmark(j, bucket)
             if hit_word is not None:
                 wt = int(sum(_kernels.popcount64(x) for x in hit_word))
                 best.offer(wt, hit_word)
