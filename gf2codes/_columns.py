@@ -248,9 +248,9 @@ def _start(n: int, k: int, dist: int) -> tuple[list[int], list[list[int]], list[
     fr = frame(r, dist)
     sums: list[list[int]] = [[0]] + [[] for _ in range(dist - 3)]
     forbidden = {0}
-    layer = {(): 0}
+    layer: dict[tuple[int, ...], int] = {(): 0}
     for t in range(1, dist - 1):  # XORs of t-subsets of the frame, t <= D - 2
-        nxt = {}
+        nxt: dict[tuple[int, ...], int] = {}
         for key, val in layer.items():
             last = key[-1] if key else -1
             for j in range(last + 1, len(fr)):
@@ -354,10 +354,11 @@ def _run_compiled(n: int, k: int, dist: int, cands: list[int], sums: list[list[i
     work = np.zeros(width, dtype=np.int64)
     state = np.array([0, 1, 0], dtype=np.int64)
     budget = max_nodes if max_nodes is not None else 1 << 62
+    chunk = max(8, _CHUNK >> max(0, r - 10))  # a node costs about 2^r: keep chunks short
     next_report = time.perf_counter() + 0.2
     try:
         while True:
-            limit = min(budget, int(state[1]) + _CHUNK)
+            limit = min(budget, int(state[1]) + chunk)
             code = column_dfs(cand, cand_len, pos, tied_a, cols, sums_a, offs, sums_len,
                               ones_a, mark, work, state, free, dist, r, lmin, limit)
             nodes = int(state[1])

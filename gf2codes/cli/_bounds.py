@@ -229,7 +229,8 @@ def _run_nkd(n: int, k: int, d: int, args) -> int:
         dec = decide_existence(n, k, d, max_nodes=nodes, time_limit=limit,
                                progress=None if args.json else progress)
         out.update(exists={"exists": True, "none": False}.get(dec.status),
-                   by=f"exhaustive search ({dec.nodes:,} nodes)", nodes=dec.nodes,
+                   by=dec.how(), method=dec.method, nodes=dec.nodes,
+                   lemma_nodes=dec.lemma_nodes,
                    node_budget=nodes, seconds=round(dec.seconds, 3), stopped=dec.stopped,
                    statement=dec.statement())
         if dec.status == "exists":
@@ -239,8 +240,9 @@ def _run_nkd(n: int, k: int, d: int, args) -> int:
         return 0
     console.print(f"Bounds: every binary linear [{n},{k}] code has d <= {ub.d} ({ub.by}).")
     if "nodes" in out:
-        console.print(f"Exhaustive search (budget {nodes:,} nodes, {limit:g} s): "
-                      f"{out['nodes']:,} nodes in {out['seconds']:.2f} s, {out['stopped']}.")
+        console.print(f"Exhaustive search, method {out['method']} (budget {nodes:,} nodes, "
+                      f"{limit:g} s): {out['nodes']:,} nodes in {out['seconds']:.2f} s, "
+                      f"{out['stopped']}.")
     console.print(out["statement"][0].upper() + out["statement"][1:] + ".")
     if out.get("generator"):
         console.print("generator [I | A]:")
