@@ -82,15 +82,20 @@ def column_dfs(cand, cand_len, pos, tied, cols, sums, offs, sums_len, ones, mark
                 continue
             if lmin > 0:
                 # hyperplane rule: every h != 0 needs lmin columns with h . c = 1; first
-                # with the columns still to choose as the only help (cheap), then, once
-                # fewer than 2^(r-2) candidates are left, with their counts (a transform)
+                # with the columns still to choose as the only help (cheap; it can only
+                # fail once fewer than lmin are left), then, once fewer than 2^(r-2)
+                # candidates are left, with their counts (a Walsh-Hadamard transform)
                 rest = need - 1
                 ok = True
-                for h in range(1, size):
-                    s1 = ones[L, h] + np.int64(popcount64(np.uint64(h) & y) & one)
-                    ones[L + 1, h] = s1
-                    if s1 + rest < lmin and ok:
-                        ok = False
+                filled = False
+                if rest < lmin or 4 * cnt < size:
+                    filled = True
+                    for h in range(1, size):
+                        s1 = ones[L, h] + np.int64(popcount64(np.uint64(h) & y) & one)
+                        ones[L + 1, h] = s1
+                        if s1 + rest < lmin:
+                            ok = False
+                            break
                 if ok and 4 * cnt < size:
                     for h in range(size):
                         work[h] = 0
@@ -111,6 +116,10 @@ def column_dfs(cand, cand_len, pos, tied, cols, sums, offs, sums_len, ones, mark
                             break
                 if not ok:
                     continue
+                if not filled:
+                    for h in range(1, size):
+                        ones[L + 1, h] = ones[L, h] + np.int64(popcount64(np.uint64(h) & y)
+                                                               & one)
             # push y: sets of size t + 1 containing y are y ^ (sets of size t)
             sums_len[L + 1, 0] = 1
             for t in range(top - 1, 0, -1):

@@ -281,18 +281,24 @@ def choose_method(n: int, k: int, d: int) -> str:
     """The method :func:`decide_existence` uses for ``"auto"``: ``"rows"`` or ``"columns"``.
 
     Both methods choose ``k`` (rows) or ``k - 1`` (columns) vectors of ``F_2^{n-k}``
-    from the same candidates; the column method adds the hyperplane rule, whose cost is
-    ``2^{n-k}`` per node and whose strength grows with the rate. The estimate is the
-    work per node times the depth: columns when ``n - k`` is at most
-    :data:`gf2codes._columns.HYPERPLANE_REDUNDANCY` and ``k >= n - k`` (measured on the
-    cells of ``scripts/bench_bounds.py``, where it was the faster one), rows otherwise.
+    from the same candidates. The estimate is the work per node, which the nodes do not
+    make up for: a column node also carries the sums of the ``n - k + 1`` frame
+    columns (``sum_{t <= d-3} C(n, t)`` of them against ``C(k, t)`` for a row node) and,
+    with the hyperplane rule on, up to ``(n - k) 2^(n-k)`` counting steps. On every cell
+    of ``scripts/bench_existence.py`` the column method visits 4 to 30 times fewer
+    nodes but takes longer, so it is chosen only where this per-node estimate is at
+    most twice the row method's (very high rates: few check bits, small ``d``). It
+    stays the independent second method (``method="columns"``) and the cross-check of
+    the first. A tree-size estimate (random probes) would choose better; not done yet.
     """
-    from ._columns import HYPERPLANE_REDUNDANCY, MAX_COLUMN_REDUNDANCY
-
     r = n - k
-    if d >= 3 and r <= min(HYPERPLANE_REDUNDANCY, MAX_COLUMN_REDUNDANCY) and k >= r:
-        return "columns"
-    return "rows"
+    if d < 3:
+        return "rows"
+    top = d - 2
+    row_work = sum(math.comb(k, t) for t in range(top)) * max(1, k)
+    col_work = (sum(math.comb(n, t) for t in range(top)) + (r << r if r <= 14 else 0)) \
+        * max(1, k - 1)
+    return "columns" if col_work <= 2 * row_work else "rows"
 
 
 def _decide_columns(n: int, k: int, d: int, max_nodes: int | None, time_limit: float | None,

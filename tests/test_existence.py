@@ -297,8 +297,9 @@ def test_column_method_time_limit_and_ctrl_c_leave_the_cell_undecided():
 def test_auto_picks_a_method_and_names_it():
     from gf2codes.existence import choose_method
 
-    assert choose_method(24, 15, 5) == "columns" and choose_method(24, 8, 9) == "rows"
-    dec = decide_existence(18, 10, 5, max_nodes=None)
+    assert choose_method(24, 8, 9) == "rows" and choose_method(32, 29, 4) == "columns"
+    dec = decide_existence(18, 10, 5, max_nodes=None, method="columns")
     assert dec.method == "columns" and "parity-check columns" in dec.statement()
+    assert decide_existence(18, 10, 5, max_nodes=None).method == choose_method(18, 10, 5)
     with pytest.raises(ParameterError, match="Argument 'method' must be one of"):
         decide_existence(8, 4, 4, method="both")  # type: ignore[arg-type]
