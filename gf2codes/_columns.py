@@ -375,6 +375,8 @@ def _run_compiled(n: int, k: int, dist: int, cands: list[int], sums: list[list[i
             if progress is not None and now >= next_report:
                 next_report = now + 0.2
                 progress(nodes, {"note": f"[{n},{k},{dist}] columns: {nodes:,} nodes, depth "
-                                         f"{int(state[0])}/{free}", "depth": int(state[0])})
+                                         f"{int(state[0])}/{free}, first column "
+                                         f"{int(pos[0])}/{int(cand_len[0])}",
+                                 "depth": int(state[0])})
     except KeyboardInterrupt:
         return ColumnOutcome("undecided", int(state[1]), "interrupted", None, lemma, cap)

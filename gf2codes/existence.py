@@ -391,7 +391,8 @@ def _decide_compiled(n: int, k: int, d: int, max_nodes: int | None, time_limit: 
             if progress is not None and now >= next_report:
                 next_report = now + 0.2
                 progress(nodes, {"note": f"[{n},{k},{d}]: {nodes:,} nodes, depth "
-                                         f"{int(state[0])}/{k}", "depth": int(state[0])})
+                                         f"{int(state[0])}/{k}, first row {int(pos[0])}/"
+                                         f"{int(cand_len[0])}", "depth": int(state[0])})
     except KeyboardInterrupt:
         return undecided("interrupted", int(state[1]))
 
