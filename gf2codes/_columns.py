@@ -116,8 +116,18 @@ def _sphere_cap(r: int, dist: int) -> int:
     return m
 
 
-@memo(1024)
-def column_cap(r: int, dist: int, compiled: bool = True, top: int = 1 << 30) -> tuple[int, int]:
+@memo(1)
+def _cap_store() -> dict[tuple[int, int, bool, int], tuple[int, int]]:
+    """The caps computed so far (a memo, so :func:`gf2codes._util.clear_caches` empties it)."""
+    return {}
+
+
+class _CapTimeout(Exception):
+    """Internal: the caller's deadline passed while a cap was being computed."""
+
+
+def column_cap(r: int, dist: int, compiled: bool = True, top: int = 1 << 30,
+               deadline: float | None = None) -> tuple[int, int]:
     """An upper bound on the number of columns of ``F_2^r`` with no ``D - 1`` dependent.
 
     Any such set of ``m > r`` columns is the parity-check matrix of an
@@ -129,11 +139,31 @@ def column_cap(r: int, dist: int, compiled: bool = True, top: int = 1 << 30) -> 
     :data:`CAP_NODES`, no clock, so the same on any machine) finds no
     ``[m, m - r, D]`` code: by shortening, no longer length is possible either.
 
+    The caller's ``deadline`` stops the work (raising ``_CapTimeout``; nothing is
+    stored), so a cap is the same whenever it is returned.
+
     Returns
     -------
     (cap, nodes) : tuple of int
         The bound and the nodes of the decisions made for it.
     """
+    key = (r, dist, compiled, top)
+    store = _cap_store()
+    if key not in store:
+        store[key] = _compute_cap(r, dist, compiled, top, deadline)
+    return store[key]
+
+
+def _lemma(m: int, r: int, dist: int, compiled: bool, deadline: float | None) -> ColumnOutcome:
+    out = column_search(m, m - r, dist, max_nodes=CAP_NODES, deadline=deadline, progress=None,
+                        compiled=compiled)
+    if out.stopped in ("time limit", "interrupted"):
+        raise _CapTimeout(out.stopped)
+    return out
+
+
+def _compute_cap(r: int, dist: int, compiled: bool, top: int,
+                 deadline: float | None) -> tuple[int, int]:
     if r < 1:
         return 0, 0
     if dist - 1 > r:  # r + 1 vectors of F_2^r are dependent
@@ -144,20 +174,18 @@ def column_cap(r: int, dist: int, compiled: bool = True, top: int = 1 << 30) -> 
         # m columns with no D - 1 dependent give an [m, >= m - r, >= D] code; puncturing
         # one coordinate gives an [m - 1, >= m - r, >= D - 1] code, whose parity-check
         # columns are m - 1 vectors of F_2^(r-1) with no D - 2 dependent.
-        below, spent = column_cap(r - 1, dist - 1, compiled, top - 1)
+        below, spent = column_cap(r - 1, dist - 1, compiled, top - 1, deadline)
         return below + 1, spent
     m = sphere = _sphere_cap(r, dist)
     spent = 0
     if r < top < sphere:
         m = top
-        out = column_search(m + 1, m + 1 - r, dist, max_nodes=CAP_NODES, deadline=None,
-                            progress=None, compiled=compiled)
+        out = _lemma(m + 1, r, dist, compiled, deadline)
         spent += out.nodes + out.lemma_nodes
         if out.status != "none":
             return sphere, spent
     while m > r:
-        out = column_search(m, m - r, dist, max_nodes=CAP_NODES, deadline=None, progress=None,
-                            compiled=compiled)
+        out = _lemma(m, r, dist, compiled, deadline)
         spent += out.nodes + out.lemma_nodes
         if out.status != "none":
             break
@@ -288,9 +316,11 @@ def column_search(n: int, k: int, dist: int, *, max_nodes: int | None, deadline:
     cap = 0
     if r <= HYPERPLANE_REDUNDANCY and r >= 2:
         try:
-            cap, lemma = column_cap(r - 1, dist, compiled, n - 1)
+            cap, lemma = column_cap(r - 1, dist, compiled, n - 1, deadline)
         except KeyboardInterrupt:
             return ColumnOutcome("undecided", 0, "interrupted", None, 0, 0)
+        except _CapTimeout as stop:
+            return ColumnOutcome("undecided", 0, str(stop), None, 0, 0)
         lmin = max(0, n - cap)
     cands, sums, ones, tied = _start(n, k, dist)
     fr = frame(r, dist)

@@ -290,6 +290,9 @@ def test_column_method_time_limit_and_ctrl_c_leave_the_cell_undecided():
     dec = decide_existence(24, 15, 5, max_nodes=None, progress=interrupt, time_limit=30,
                            method="columns")
     assert dec.status == "undecided" and dec.stopped == "interrupted"
+    # the deadline also bounds the smaller decisions behind the hyperplane cap
+    dec = decide_existence(29, 16, 7, max_nodes=None, time_limit=0.5, method="columns")
+    assert dec.status == "undecided" and dec.stopped == "time limit"
     dec = decide_existence(24, 15, 5, max_nodes=1000, method="columns")
     assert dec.status == "undecided" and dec.stopped == "node budget" and dec.nodes == 1000
 
