@@ -5,7 +5,9 @@ For every open cell ``(n, k)`` with ``n <= --max-n`` (the shipped catalog's best
 by exhaustive search (:func:`gf2codes.existence.decide_existence`) whether an
 ``[n, k, U]`` code exists, within a node budget. A "none" is recorded and the table is
 recomputed (the propagation rules carry it to other cells), and the sweep repeats until
-no open cell is decided. An "exists" means the catalog lacks a code the search found;
+no open cell is decided. Each cell is tried with the method
+:func:`gf2codes.existence.choose_method` picks, then (if that one stops undecided) with
+the other one, each within the budget. An "exists" means the catalog lacks a code the search found;
 it is printed (the witness generator), not recorded. Prints the open-cell counts for
 n <= 32 and n <= 64 before and after, with the load average.
 
@@ -22,8 +24,9 @@ import time
 from pathlib import Path
 
 from gf2codes import bounds as B
+from gf2codes._columns import HYPERPLANE_REDUNDANCY
 from gf2codes.catalog import open_catalog
-from gf2codes.existence import decide_existence
+from gf2codes.existence import choose_method, decide_existence
 
 OUT = Path(B.NONEXISTENCE_FILE)
 
@@ -36,10 +39,14 @@ def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--max-n", type=int, default=32)
     ap.add_argument("--budget", type=int, default=300_000, help="nodes per decision")
-    ap.add_argument("--time-limit", type=float, default=120.0, help="seconds per decision")
+    ap.add_argument("--time-limit", type=float, default=60.0, help="seconds per decision")
     args = ap.parse_args()
     print("load average:", os.getloadavg())
-    facts = {(r[0], r[1], r[2]): r[3] for r in B.proved_nonexistence()}
+    facts = {}
+    for line in OUT.read_text().splitlines() if OUT.exists() else []:
+        if line.strip():
+            rec = json.loads(line)
+            facts[(rec["n"], rec["k"], rec["d"])] = (rec["nodes"], rec.get("method", "rows"))
     tried: set[tuple[int, int, int]] = set()
     with tempfile.TemporaryDirectory() as td:
         cat = open_catalog(os.path.join(td, "catalog.db"))
@@ -53,15 +60,23 @@ def main() -> None:
                 if (n, k, d) in tried:
                     continue
                 tried.add((n, k, d))
-                t0 = time.perf_counter()
-                dec = decide_existence(n, k, d, max_nodes=args.budget,
-                                       time_limit=args.time_limit)
-                print(f"[{n},{k},{d}] {dec.status:9s} {dec.nodes:>10,} nodes "
-                      f"{time.perf_counter() - t0:7.2f} s  {dec.stopped}", flush=True)
+                first = choose_method(n, k, d)
+                methods = [first, "rows" if first == "columns" else "columns"]
+                if n - k > HYPERPLANE_REDUNDANCY:  # columns without the hyperplane rule:
+                    methods = ["rows"]               # the row method is always faster there
+                for method in methods:
+                    t0 = time.perf_counter()
+                    dec = decide_existence(n, k, d, max_nodes=args.budget,
+                                           time_limit=args.time_limit, method=method)
+                    print(f"[{n},{k},{d}] {method:7s} {dec.status:9s} {dec.nodes:>12,} nodes "
+                          f"(+{dec.lemma_nodes:,}) {time.perf_counter() - t0:7.2f} s  "
+                          f"{dec.stopped}  load {os.getloadavg()[0]:.1f}", flush=True)
+                    if dec.decided:
+                        break
                 if dec.status == "none":
-                    facts[(n, k, d)] = dec.nodes
-                    lines = [json.dumps({"n": a, "k": b, "d": c, "nodes": v})
-                             for (a, b, c), v in sorted(facts.items())]
+                    facts[(n, k, d)] = (dec.nodes, dec.method)
+                    lines = [json.dumps({"n": a, "k": b, "d": c, "nodes": v, "method": m})
+                             for (a, b, c), (v, m) in sorted(facts.items())]
                     OUT.write_text("\n".join(lines) + "\n")
                     B.reset_tables()
                     progress = True

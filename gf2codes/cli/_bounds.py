@@ -46,6 +46,9 @@ def register(subparsers) -> None:
                         f"(default {_NODES:,})")
     p.add_argument("--time-limit", metavar="SECONDS", default=None,
                    help="time limit of the exhaustive search with --n --k --d (default 60)")
+    p.add_argument("--method", choices=("auto", "rows", "columns"), default="auto",
+                   help="exhaustive search with --n --k --d: generator rows, parity-check "
+                        "columns, or the one estimated cheaper (default auto)")
     p.add_argument("--table", action="store_true",
                    help="for every k and d in the ranges: the least length the bounds allow "
                         "and the length at which a code is guaranteed to exist")
@@ -227,9 +230,11 @@ def _run_nkd(n: int, k: int, d: int, args) -> int:
             err_console.print(f"  {info['note']}", end="\r")
 
         dec = decide_existence(n, k, d, max_nodes=nodes, time_limit=limit,
-                               progress=None if args.json else progress)
+                               progress=None if args.json else progress,
+                               method=getattr(args, "method", None) or "auto")
         out.update(exists={"exists": True, "none": False}.get(dec.status),
-                   by=f"exhaustive search ({dec.nodes:,} nodes)", nodes=dec.nodes,
+                   by=dec.how(), method=dec.method, nodes=dec.nodes,
+                   lemma_nodes=dec.lemma_nodes,
                    node_budget=nodes, seconds=round(dec.seconds, 3), stopped=dec.stopped,
                    statement=dec.statement())
         if dec.status == "exists":
@@ -239,8 +244,9 @@ def _run_nkd(n: int, k: int, d: int, args) -> int:
         return 0
     console.print(f"Bounds: every binary linear [{n},{k}] code has d <= {ub.d} ({ub.by}).")
     if "nodes" in out:
-        console.print(f"Exhaustive search (budget {nodes:,} nodes, {limit:g} s): "
-                      f"{out['nodes']:,} nodes in {out['seconds']:.2f} s, {out['stopped']}.")
+        console.print(f"Exhaustive search, method {out['method']} (budget {nodes:,} nodes, "
+                      f"{limit:g} s): {out['nodes']:,} nodes in {out['seconds']:.2f} s, "
+                      f"{out['stopped']}.")
     console.print(out["statement"][0].upper() + out["statement"][1:] + ".")
     if out.get("generator"):
         console.print("generator [I | A]:")
