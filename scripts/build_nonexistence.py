@@ -7,9 +7,12 @@ by exhaustive search (:func:`gf2codes.existence.decide_existence`) whether an
 recomputed (the propagation rules carry it to other cells), and the sweep repeats until
 no open cell is decided. Each cell is tried with the method
 :func:`gf2codes.existence.choose_method` picks, then (if that one stops undecided) with
-the other one, each within the budget. An "exists" means the catalog lacks a code the search found;
-it is printed (the witness generator), not recorded. Prints the open-cell counts for
-n <= 32 and n <= 64 before and after, with the load average.
+the other one, each within the budget. An "exists" means the catalog lacks a code the
+search found: its generator is kept in ``scripts/existence_found_codes.jsonl`` and every
+such code, its distance proved again by the distance engine, is written as a shipped
+catalog record to ``catalog/exhaustive.jsonl`` (imported with the seed; regenerate it
+alone with ``--records-only``). Prints the open-cell counts for n <= 32 and n <= 64
+before and after, with the load average.
 
     python scripts/build_nonexistence.py --max-n 32 --budget 300000
 """
@@ -29,6 +32,60 @@ from gf2codes.catalog import open_catalog
 from gf2codes.existence import choose_method, decide_existence
 
 OUT = Path(B.NONEXISTENCE_FILE)
+ROOT = Path(__file__).resolve().parent.parent
+FOUND = ROOT / "scripts" / "existence_found_codes.jsonl"
+RECORDS = ROOT / "catalog" / "exhaustive.jsonl"
+
+
+def _found() -> dict[tuple[int, int, int], dict]:
+    out = {}
+    for line in FOUND.read_text().splitlines() if FOUND.exists() else []:
+        if line.strip():
+            rec = json.loads(line)
+            out[(rec["n"], rec["k"], rec["d"])] = rec
+    return out
+
+
+def keep_found(n: int, k: int, d: int, by: str, generator: list[list[int]]) -> None:
+    """Add a code found by an "exists" decision to ``FOUND`` (sorted, one per cell)."""
+    found = _found()
+    found[(n, k, d)] = {"n": n, "k": k, "d": d, "by": by,
+                        "generator": ["".join(map(str, row)) for row in generator]}
+    FOUND.write_text("".join(json.dumps(found[key]) + "\n" for key in sorted(found)))
+
+
+def write_records() -> int:
+    """Write ``RECORDS``: every found code as a catalog record, d proved here again.
+
+    Goes through a private catalog (no shipped records) and its export without stamps
+    (the shipped format); timing fields of the proof are dropped, so the same codes give
+    the same bytes.
+    """
+    import numpy as np
+
+    from gf2codes.code import Code
+    from gf2codes.distance import minimum_distance
+
+    os.environ["GF2CODES_SHIPPED_CATALOG"] = "none"
+    with tempfile.TemporaryDirectory() as td, open_catalog(os.path.join(td, "c.db")) as cat:
+        for (n, k, d), rec in sorted(_found().items()):
+            rows = np.array([[int(c) for c in row] for row in rec["generator"]], dtype=np.uint8)
+            code = Code(rows)
+            res = minimum_distance(code)
+            if not res.exact or res.d < d:
+                raise SystemExit(f"[{n},{k},{d}] in {FOUND.name}: d not proved ({res.d})")
+            cat.add(code, d=res.d, source="exhaustive", proof={"method": res.method})
+        lines = []
+        import io
+
+        buf = io.StringIO()
+        cat.export(buf, stamps=False)
+        for line in buf.getvalue().splitlines():
+            rec = json.loads(line)
+            rec.get("proof", {}).pop("seconds", None)
+            lines.append(json.dumps(rec))
+    RECORDS.write_text("".join(line + "\n" for line in lines))
+    return len(lines)
 
 
 def open_cells(cat, max_n: int) -> list[dict]:
@@ -40,7 +97,12 @@ def main() -> None:
     ap.add_argument("--max-n", type=int, default=32)
     ap.add_argument("--budget", type=int, default=300_000, help="nodes per decision")
     ap.add_argument("--time-limit", type=float, default=60.0, help="seconds per decision")
+    ap.add_argument("--records-only", action="store_true",
+                    help=f"only rewrite {RECORDS.name} from {FOUND.name}")
     args = ap.parse_args()
+    if args.records_only:
+        print(f"{write_records()} records written to {RECORDS}")
+        return
     print("load average:", os.getloadavg())
     facts = {}
     for line in OUT.read_text().splitlines() if OUT.exists() else []:
@@ -83,6 +145,8 @@ def main() -> None:
                     break
                 if dec.status == "exists":
                     print("   catalog lacks this code; generator [I | A]:", dec.generator())
+                    keep_found(n, k, d, dec.how(), dec.generator())
+                    print(f"   {write_records()} records in {RECORDS}")
         after = {m: len(open_cells(cat, m)) for m in (32, 64)}
         print("open cells after:", after)
         for row in open_cells(cat, 32):
