@@ -97,7 +97,7 @@ class InfoSetMatrix:
 
 #: Column orders tried by :func:`information_sets` beyond the plain one (seeded, so every
 #: process builds the same sets), when the code is small enough for it to be cheap.
-_SET_TRIALS = 6
+_SET_TRIALS = 4
 _SET_TRIAL_MAX_ENTRIES = 1 << 18  # k * n above which only the plain order is tried
 
 
@@ -118,15 +118,16 @@ def _greedy_sets(G: np.ndarray, n: int, k: int, first: np.ndarray
     return out
 
 
-def _set_quality(ranks: list[int], k: int) -> tuple[int, ...]:
-    """How good a list of set ranks is: the Zimmermann bound after each full level
-    ``w = 1 .. k`` (compared lexicographically, so a larger bound at the first level
-    where two lists differ wins; for disjoint sets the ranks sum to the number of
-    nonzero columns whatever the order, so what can be improved is how the ranks are
-    distributed over the sets)."""
-    return tuple(sum(max(0, w + 1 - (k - r)) for r in ranks) for w in range(1, k + 1))
+def _set_quality(ranks: list[int]) -> tuple[int, ...]:
+    """How good a list of set ranks is: the ranks in decreasing order, compared
+    lexicographically. For disjoint sets the ranks sum to the number of nonzero columns
+    whatever the order, so what can be improved is how they are distributed; a larger
+    largest rank (then second largest, ...) makes the Zimmermann bound
+    ``sum_j max(0, w + 1 - (k - r_j))`` positive at a lower level ``w``."""
+    return tuple(sorted(ranks, reverse=True))
 
 
+@memo(4)
 def information_sets(code: Code) -> list[InfoSetMatrix]:
     """Systematic generators on successive, as far as possible disjoint, information
     sets, with the distribution of ranks that proves the most at the lowest levels.
@@ -135,9 +136,10 @@ def information_sets(code: Code) -> list[InfoSetMatrix]:
     construction): its ``rank`` is the number of its new positions. The greedy choice
     of the first sets can leave a later one a small rank when another choice would not,
     so besides the natural column order a few seeded random orders are tried (when
-    ``k * n`` is small enough for that to be cheap) and the sets kept are those whose
-    Zimmermann bound is largest at the first level where the candidates differ
-    (:func:`_set_quality`). Deterministic: every process builds the same sets.
+    ``k * n`` is small enough for that to be cheap) and the sets kept are those with the
+    best distribution of ranks (:func:`_set_quality`). Deterministic: every process
+    builds the same sets; the last few are memoised (they depend only on the subspace,
+    which is what codes compare equal by).
     """
     n, k = code.n, code.k
     G = code.packed_generator
@@ -149,7 +151,7 @@ def information_sets(code: Code) -> list[InfoSetMatrix]:
     best_q: tuple[int, ...] = ()
     for order in orders:
         sets = _greedy_sets(G, n, k, order)
-        q = _set_quality([r for _rows, _piv, r in sets], k)
+        q = _set_quality([r for _rows, _piv, r in sets])
         if best is None or q > best_q:
             best, best_q = sets, q
     assert best is not None
@@ -312,6 +314,7 @@ def _balanced_matrix(code: Code, sym: Symmetry) -> InfoSetMatrix:
     return InfoSetMatrix(e.rows, code.k, code.k, positions=e.pivots)
 
 
+@memo(4)
 def make_plans(code: Code, symmetry: Symmetry | None) -> list[Plan]:
     """Every plan that applies to ``code`` with the automorphism group ``symmetry``.
 
@@ -352,6 +355,9 @@ def make_plans(code: Code, symmetry: Symmetry | None) -> list[Plan]:
       full disjoint sets at level ``w`` for the price of ``C(k-1, w-1)`` codewords
       instead of ``2 C(k, w)``. The same idea for cyclic codes is the basis of the
       cyclic-code refinement of Brouwer–Zimmermann described by Grassl [1]_.
+
+    The plans of the last few codes are memoised (they depend only on the subspace and
+    the group).
 
     In every plan, after the last level (all combinations of one matrix, or every
     codeword with a one at position 0, which every nonzero codeword of a cyclic code
