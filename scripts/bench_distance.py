@@ -271,6 +271,10 @@ def symmetry_rows(cores: int, *, quick: bool) -> None:
              ("quasi-cyclic [123,41], seed 41", quasi_cyclic_example(41, 3), (1,))]
     if not quick:
         cases.append(("BCH [127,64]", families.bch(127, 21), tuple(sorted({1, cores}))))
+    for use in (True, False):  # load every kernel either plan calls before timing
+        for workers in sorted({1, cores}):
+            minimum_distance(families.quadratic_residue(47), workers=workers,
+                             method="brouwer-zimmermann", use_symmetry=use)
     for label, C, worker_counts in cases:
         for workers in worker_counts:
             row = []

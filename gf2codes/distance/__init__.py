@@ -30,7 +30,8 @@ columns of a parity-check matrix that sum to zero. One fast upper bound,
 the sums of at most two rows of each systematic generator.
 
 The package's rooms: ``_result`` (the result, the clock, the best word), ``_gray``,
-``_bz`` (with the level tasks sent to other processes), ``_dual``, ``_routes`` (the
+``_bz`` (the plans, their proved bounds, and the level tasks sent to other processes),
+``_symmetry`` (automorphisms: detection, checking, orbits), ``_dual``, ``_routes`` (the
 estimates and the choice) and ``_isd``; :func:`minimum_distance` runs the steps
 (arguments, ISD pre-pass, route, work limit, the route itself, the result).
 

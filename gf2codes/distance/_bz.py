@@ -380,7 +380,9 @@ def make_plans(code: Code, symmetry: Symmetry | None) -> list[Plan]:
     if symmetry is None:
         return plans
     plans.append(Plan("orbit-average+zimmermann", mats, symmetry))
-    plans.append(Plan("orbit-average", [_balanced_matrix(code, symmetry)], symmetry))
+    # for a transitive group every information set meets the one orbit in k positions
+    first = mats[0] if symmetry.transitive else _balanced_matrix(code, symmetry)
+    plans.append(Plan("orbit-average", [first], symmetry))
     if symmetry.cyclic and 2 * code.k <= code.n + 1 and code.k >= 3:
         wm = _window_matrix(code)
         if wm is not None:
@@ -668,7 +670,7 @@ def bz_search(code: Code, clock: ProofClock, best: Best, target: int | None,
             lower = max(lower, lower_after)
             if sets_out is not None:
                 sets_out[j].update(levels_done=w, contribution=mats[j].contribution(w))
-                if symmetry is not None:
+                if plan.symmetry is not None:
                     sets_out[j]["bound"] = min(plan.set_bound(j, w), code.n)
             reason = settled(best.weight, lower, target)
             if reason:
