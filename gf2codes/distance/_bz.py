@@ -546,8 +546,9 @@ _REMOTE_MIN_WORK = 2 * 10**9
 @memo(2)
 def _worker_matrix(key: bytes, rows_bytes: bytes, base_bytes: bytes, n_rows: int
                    ) -> InfoSetMatrix:
-    rows = np.frombuffer(rows_bytes, dtype=np.uint64).reshape(n_rows, -1)
-    base = np.frombuffer(base_bytes, dtype=np.uint64)
+    # frombuffer gives read-only views; the kernels take writable arrays
+    rows = np.frombuffer(rows_bytes, dtype=np.uint64).reshape(n_rows, -1).copy()
+    base = np.frombuffer(base_bytes, dtype=np.uint64).copy()
     return InfoSetMatrix(rows, n_rows, n_rows, base=base)
 
 
