@@ -262,6 +262,8 @@ def test_window_plan_named_on_a_half_rate_cyclic_code():
     assert r.d == p.d == 11
     assert r.argument == "cyclic-window"
     assert r.information_sets[0]["images"].startswith("all 47 cyclic shifts")
+    # not every combination of a level is enumerated: no Zimmermann contribution claimed
+    assert r.information_sets[0]["contribution"] == 0
     assert r.information_sets[0]["bound"] >= 11
 
 
