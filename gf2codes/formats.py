@@ -244,6 +244,10 @@ class CodeRecord:
     d_lower: int | None = None
     d_upper: int | None = None
     extra: dict[str, Any] = field(default_factory=dict)
+    #: Coordinate permutations (``i -> p[i]``) from the record's ``automorphisms``
+    #: field, each checked to be a permutation of ``range(n)`` that maps the code to
+    #: itself (the proof of d uses them; an unchecked claim never reaches it).
+    automorphisms: tuple[tuple[int, ...], ...] = ()
 
 
 def rows_to_strings(bits: np.ndarray) -> list[str]:
@@ -359,7 +363,7 @@ def record_to_code(obj: Any, source: str = "<record>", *, limit: int | None = No
                 f"{key} = {getattr(code, key)}."
             )
     known = {"record", "version", "n", "k", "generator", "parity_check", "d", "d_lower",
-             "d_upper", "name", "recipe"}
+             "d_upper", "name", "recipe", "automorphisms"}
     d, lo, hi = (_distance_field(obj, key, source, code.n) for key in ("d", "d_lower",
                                                                        "d_upper"))
     if lo is not None and hi is not None and lo > hi:
@@ -373,7 +377,38 @@ def record_to_code(obj: Any, source: str = "<record>", *, limit: int | None = No
         d_lower=lo,
         d_upper=hi,
         extra={k: v for k, v in obj.items() if k not in known},
+        automorphisms=_automorphisms_field(obj, code, source),
     )
+
+
+def _automorphisms_field(obj: dict[str, Any], code: Code, source: str
+                         ) -> tuple[tuple[int, ...], ...]:
+    """A record's ``automorphisms``: absent, null, or a list of permutations of
+    ``range(n)`` (lists of ``n`` integers, ``i -> p[i]``), each checked to map the code
+    to itself."""
+    from .distance._symmetry import check_permutation, is_automorphism
+
+    value = obj.get("automorphisms")
+    if value is None:
+        return ()
+    if not isinstance(value, list):
+        raise ParseError(f"{source}: 'automorphisms' must be a list of permutations "
+                         f"(lists of n integers), not {type(value).__name__} "
+                         f"{_short(value)}.")
+    out = []
+    for i, perm in enumerate(value):
+        if not isinstance(perm, list):
+            raise ParseError(f"{source}: automorphisms[{i}] must be a list of {code.n} "
+                             f"integers, not {type(perm).__name__} {_short(perm)}.")
+        try:
+            p = check_permutation(perm, code.n, name=f"automorphisms[{i}]")
+        except ParameterError as exc:
+            raise ParseError(f"{source}: {str(exc).removeprefix('Argument ')}") from None
+        if not is_automorphism(code, p):
+            raise ParseError(f"{source}: automorphisms[{i}] does not map the code to itself "
+                             "(it moves a basis row out of the code).")
+        out.append(p)
+    return tuple(out)
 
 
 def _parse_npy(data: bytes, source: str, limit: int) -> np.ndarray:

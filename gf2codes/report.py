@@ -22,7 +22,7 @@ References
 from __future__ import annotations
 
 import dataclasses
-from collections.abc import Callable, Mapping
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass
 from typing import Any, cast
 
@@ -98,7 +98,15 @@ class VerifyReport:
     d_route_estimates_s : mapping of str to float
         Estimated seconds per route (3 significant digits).
     d_information_sets : tuple of mapping
-        Brouwer–Zimmermann only: per information set, its rank and levels done.
+        Brouwer–Zimmermann only: per information set, its rank, levels done, the
+        proved contribution and the argument (with a group: the bound it proves alone
+        and the images credited).
+    d_argument : str
+        Brouwer–Zimmermann only: the argument of the lower bound (``"zimmermann"``,
+        ``"orbit-average"``, ``"orbit-average+zimmermann"``, ``"cyclic-window"``).
+    d_symmetry : mapping or None
+        The automorphism group the proof used (detected cyclic or quasi-cyclic
+        structure, or the checked permutations of the input), or None.
     codewords_examined : int
     seconds : float
         Wall time of the whole report.
@@ -135,6 +143,8 @@ class VerifyReport:
     d_route_reason: str
     d_route_estimates_s: Mapping[str, float]
     d_information_sets: tuple[Mapping[str, Any], ...]
+    d_argument: str
+    d_symmetry: Mapping[str, Any] | None
     codewords_examined: int
     seconds: float
     stopped: StopReason | None
@@ -179,6 +189,8 @@ class VerifyReport:
             "d_route_reason": self.d_route_reason,
             "d_route_estimates_s": dict(self.d_route_estimates_s),
             "d_information_sets": [dict(x) for x in self.d_information_sets],
+            "d_argument": self.d_argument,
+            "d_symmetry": None if self.d_symmetry is None else dict(self.d_symmetry),
             "codewords_examined": self.codewords_examined, "seconds": self.seconds,
             "stopped": self.stopped, "corrects": self.corrects, "detects": self.detects,
             "weight_distribution": _list(self.weight_distribution),
@@ -205,7 +217,8 @@ def _list(values: tuple[int, ...] | None) -> list[int] | None:
 def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod = "exact",
            target_d: int | None = None, seed: int = 0, workers: int | None = None,
            stated: Mapping[str, int] | None = None, source: str | None = None,
-           progress: Progress | None = None, executor: Any = None) -> VerifyReport:
+           progress: Progress | None = None, executor: Any = None,
+           automorphisms: Sequence[Sequence[int]] = ()) -> VerifyReport:
     """Prove the parameters of ``code`` and report them (what ``gf2codes verify`` prints).
 
     Parameters
@@ -232,6 +245,9 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
         ``progress(done, total, info)``; ``info["stage"]`` names the step.
     executor : optional
         An executor of :mod:`gf2codes.parallel` for the large enumeration levels.
+    automorphisms : sequence of permutations, optional
+        Coordinate permutations that map the code to itself (checked), for the proof
+        of d (see :func:`gf2codes.distance.minimum_distance`).
 
     Returns
     -------
@@ -256,7 +272,7 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
                              f"not {method!r}.")
     clock = Clock(time_limit)
     res = _distance(code, method, time_limit, target_d, seed, workers, executor,
-                    _stage(progress, "proving d"))
+                    _stage(progress, "proving d"), automorphisms)
     notes: list[str] = []
     not_computed: list[str] = []
     dist, dual_dist = _weights(code, res, clock, _stage(progress, "counting weights"),
@@ -279,6 +295,7 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
         d_exact=res.exact, d_method=res.method, d_route_reason=res.reason,
         d_route_estimates_s={e: float(f"{v:.3g}") for e, v in res.estimates.items()},
         d_information_sets=tuple(dict(x) for x in res.information_sets),
+        d_argument=res.argument, d_symmetry=res.symmetry,
         codewords_examined=res.codewords, seconds=round(clock.elapsed(), 4),
         stopped=cast("StopReason | None", res.stopped),
         corrects=(d - 1) // 2 if d is not None else (lower - 1) // 2,
@@ -307,13 +324,14 @@ def _stage(progress: Progress | None, stage: str) -> Progress | None:
 
 def _distance(code: Code, method: str, time_limit: float | None, target_d: int | None,
               seed: int, workers: int | None, executor: Any,
-              progress: Progress | None) -> DistanceResult:
+              progress: Progress | None, automorphisms: Sequence[Sequence[int]] = ()
+              ) -> DistanceResult:
     if method == "fast":
         return quick_distance(code, time_limit=time_limit or 2.0, seed=seed)
     try:
         return minimum_distance(code, time_limit=time_limit, progress=progress,
                                 target=target_d, seed=seed, workers=workers,
-                                executor=executor)
+                                executor=executor, automorphisms=automorphisms)
     except TooExpensiveError as exc:
         raise TooExpensiveError(
             f"proving d of this [{code.n},{code.k}] code needs about {exc.work:.2g} "

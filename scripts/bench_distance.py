@@ -16,14 +16,17 @@ Prints, in one run:
     kernels (the same head combinations and tail tables, so the ratio to it is the
     gain of the vectorised scan alone);
 (b) the time to prove d for a fixed list of codes, with 1 worker and with all workers;
-(c) high-rate codes (the issue-15 targets), whose proofs take the dual-side route.
+(c) high-rate codes (the issue-15 targets), whose proofs take the dual-side route;
+(d) codes with automorphisms (issue 15, point 2): the proof with the detected cyclic or
+    quasi-cyclic structure beside the plain engine (``use_symmetry=False``) on the same
+    machine in the same run, and their ratio.
 
 The CPU's vector features, numba's target (``NUMBA_CPU_NAME``/``NUMBA_CPU_FEATURES``;
 ``NUMBA_CPU_NAME=haswell NUMBA_CPU_FEATURES=""`` gives AVX2-only code) and the load
 average are printed first: on a shared machine the figures move with the load.
 
-Run ``python scripts/bench_distance.py`` (about 8 minutes on 2 cores, most of it the
-BCH [127,64] proof twice) or ``--quick`` to skip that code. Numba's cache is warmed
+Run ``python scripts/bench_distance.py`` (about 12 minutes on 2 cores, most of it the
+plain BCH [127,64] proof) or ``--quick`` to skip that code. Numba's cache is warmed
 before anything is timed.
 """
 
@@ -318,7 +321,7 @@ def random_code(n: int, k: int, seed: int) -> Code:
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--quick", action="store_true", help="skip the BCH [127,64] proof")
-    ap.add_argument("--only", choices=("a", "b", "c"), help="run only one section")
+    ap.add_argument("--only", choices=("a", "b", "c", "d"), help="run only one section")
     args = ap.parse_args()
     cores = os.cpu_count() or 1
     print(f"# gf2codes distance benchmark — {platform.processor() or platform.machine()}, "
@@ -393,6 +396,53 @@ def main() -> None:
             dt = time.perf_counter() - t
             print(f"| {label} | {r.d if r.exact else f'{r.lower}..{r.upper}'} | {r.method} | "
                   f"{r.codewords:.3g} | {dt:.3f} |", flush=True)
+
+    if args.only in (None, "d"):
+        symmetry_rows(cores, quick=args.quick)
+
+
+def quasi_cyclic_example(m: int, blocks: int) -> Code:
+    """A seeded (seed ``m``) random quasi-cyclic code of ``blocks`` circulants of size
+    ``m`` (one generating row): ``[blocks * m, m]`` when the first circulant has full
+    rank."""
+    rng = np.random.default_rng(m)
+    row = "".join(map(str, rng.integers(0, 2, m * blocks)))
+    return families.quasi_cyclic([row], m)
+
+
+def symmetry_rows(cores: int, *, quick: bool) -> None:
+    """(d): the automorphism plans against the plain engine, same run, same load."""
+    print("\n## (d) automorphisms: the plan with the detected group beside the plain engine")
+    print("| code | d | argument | workers | codewords | seconds | load | plain codewords | "
+          "plain seconds | load | ratio |")
+    print("|---|---|---|---|---|---|---|---|---|---|---|")
+    cases = [("QR [47,24]", families.quadratic_residue(47), (1,)),
+             ("BCH [63,36]", families.bch(63, 11), (1,)),
+             ("quasi-cyclic [122,61], seed 61", quasi_cyclic_example(61, 2), (1, cores)),
+             ("quasi-cyclic [123,41], seed 41", quasi_cyclic_example(41, 3), (1,))]
+    if not quick:
+        cases.append(("BCH [127,64]", families.bch(127, 21), tuple(sorted({1, cores}))))
+    for use in (True, False):  # load every kernel either plan calls before timing
+        for workers in sorted({1, cores}):
+            minimum_distance(families.quadratic_residue(47), workers=workers,
+                             method="brouwer-zimmermann", use_symmetry=use)
+    for label, C, worker_counts in cases:
+        for workers in worker_counts:
+            row = []
+            for use in (True, False):
+                if not use and label.startswith("BCH [127") and workers == 1:
+                    row += [None, None, None, None]  # the plain 1-worker run: ~7 min
+                    continue
+                load = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
+                t = time.perf_counter()
+                r = minimum_distance(C, workers=workers, max_work=None,
+                                     method="brouwer-zimmermann", use_symmetry=use)
+                row += [r, time.perf_counter() - t, load, r.argument]
+            r, dt, load, arg, p, pdt, pload, _parg = row
+            plain = (f"{p.codewords:.3g} | {pdt:.2f} | {pload:.2f} | {pdt / dt:.1f}x"
+                     if p is not None else "— | — | — | —")
+            print(f"| {label} | {r.d} | {arg} | {workers} | {r.codewords:.3g} | {dt:.2f} | "
+                  f"{load:.2f} | {plain} |", flush=True)
 
 
 if __name__ == "__main__":

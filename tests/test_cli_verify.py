@@ -125,7 +125,10 @@ def test_too_expensive_points_to_the_options(tmp_path):
     import galois
 
     f = tmp_path / "big.npy"
-    np.save(f, np.asarray(galois.BCH(127, 71).G).astype(np.uint8))
+    # BCH [127,71] with its columns scrambled: not cyclic as written (the cyclic shifts
+    # bring the proof of the code itself within reach, about 5e11 codewords)
+    G = np.asarray(galois.BCH(127, 71).G).astype(np.uint8)
+    np.save(f, G[:, np.random.default_rng(127).permutation(127)])
     r = _run("verify", str(f))
     assert r.returncode == 2 and "Traceback" not in r.stderr
     assert "--time-limit" in r.stderr and "--method fast" in r.stderr and "codewords" in r.stderr
@@ -238,7 +241,9 @@ def test_information_sets_in_json(tmp_path, capsys, golay24):
     if out["d_method"].startswith("brouwer-zimmermann"):
         sets = out["d_information_sets"]
         assert sets and sets[0]["rank"] == 12
-        assert all(set(s) == {"rank", "levels_done", "contribution"} for s in sets)
+        assert all({"rank", "levels_done", "contribution", "argument"} <= set(s)
+                   for s in sets)
+        assert out["d_argument"] == sets[0]["argument"]
     else:  # Gray code: no information sets
         assert out["d_information_sets"] == []
 
@@ -256,3 +261,71 @@ def test_an_unreadable_directory_is_one_error_line(tmp_path, monkeypatch, capsys
     err = capsys.readouterr().err
     assert "cannot read the directory" in err and "Permission denied" in err
     assert err.count("\n") == 1
+
+
+def _record(code, **fields) -> dict:
+    from gf2codes.formats import code_to_record
+
+    return code_to_record(code, **fields)
+
+
+def test_cyclic_structure_is_detected_in_a_plain_matrix_file(tmp_path, capsys):
+    """QR [47,24,11] (MacWilliams & Sloane ch. 16) written as a bare matrix: verify finds
+    the cyclic shifts by itself and names the argument and the group."""
+    from gf2codes import families
+
+    f = tmp_path / "qr47.txt"
+    write_code(families.quadratic_residue(47), f)
+    out = _json(capsys, str(f))
+    assert out["d"] == 11
+    if out["d_method"].startswith("brouwer-zimmermann"):
+        assert out["d_argument"] == "cyclic-window"
+        assert out["d_symmetry"]["kind"] == "cyclic" and out["d_symmetry"]["orbits"] == 1
+        s = out["d_information_sets"][0]
+        assert s["argument"] == "cyclic-window" and s["bound"] >= 11 and "images" in s
+    assert main(["verify", str(f)]) == 0
+    text = capsys.readouterr().out
+    assert "lower bound by" in text and "cyclic shifts" in text
+
+
+def test_automorphisms_in_a_record_are_checked_and_used(tmp_path, capsys):
+    """A scrambled QR [47,24,11] is not cyclic as written; the record gives the
+    conjugated shift, which is checked and credited."""
+    from gf2codes import families
+    from gf2codes.code import Code
+
+    C = families.quadratic_residue(47)
+    perm = np.random.default_rng(3).permutation(47)
+    D = Code(C.G[:, perm])
+    inv = np.argsort(perm)
+    conj = [int(inv[(int(perm[j]) + 1) % 47]) for j in range(47)]
+    f = tmp_path / "scrambled.json"
+    f.write_text(json.dumps(_record(D, automorphisms=[conj])))
+    out = _json(capsys, str(f))
+    assert out["d"] == 11
+    if out["d_method"].startswith("brouwer-zimmermann"):
+        assert out["d_argument"].startswith("orbit-average")
+        assert out["d_symmetry"]["kind"] in ("given", "cyclic+given", "quasi-cyclic+given")
+
+
+@pytest.mark.parametrize("bad, message", [
+    ("swap", "does not map the code to itself"),
+    ("short", "permutations of range(47)"),
+    ("repeat", "appears twice"),
+    ("text", "must be a list of permutations"),
+    ("floats", "must hold integers"),
+])
+def test_a_wrong_automorphism_is_one_error_line(tmp_path, bad, message):
+    from gf2codes import families
+
+    C = families.quadratic_residue(47)
+    swap = list(range(47))
+    swap[0], swap[1] = 1, 0
+    value = {"swap": [swap], "short": [list(range(46))], "repeat": [[0] * 47],
+             "text": "cyclic", "floats": [[float(i) for i in range(47)]]}[bad]
+    f = tmp_path / "bad.json"
+    f.write_text(json.dumps(_record(C, automorphisms=value)))
+    proc = _run("verify", str(f))
+    assert proc.returncode == 2
+    assert message in proc.stderr and "bad.json" in proc.stderr
+    assert len(proc.stderr.strip().splitlines()) == 1

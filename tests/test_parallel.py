@@ -80,7 +80,8 @@ def test_process_pool_and_dask_agree_with_serial(remote_levels, dask_cluster):
 def _bch_target():
     # BCH [127,64] has d = 21 (MacWilliams & Sloane, appendix A, from memory; proved by
     # scripts/bench_distance.py); settling d >= 16 takes
-    # a few billion codewords, long enough to kill a worker in the middle.
+    # a few billion codewords with the plain engine (use_symmetry=False: the cyclic
+    # shifts would settle it in well under a second), long enough to kill a worker.
     return families.bch(127, 21), 16
 
 
@@ -98,7 +99,7 @@ def test_killed_pool_worker_is_replaced_and_its_task_rerun(remote_levels):
         t = threading.Thread(target=killer)
         t.start()
         start = time.perf_counter()
-        r = minimum_distance(C, target=target, executor=pool)
+        r = minimum_distance(C, target=target, executor=pool, use_symmetry=False)
         elapsed = time.perf_counter() - start
         t.join()
     assert killed, "the test did not manage to kill a worker"
@@ -122,7 +123,8 @@ def test_killed_dask_worker_task_is_rerun(remote_levels, dask_cluster):
     t = threading.Thread(target=killer)
     t.start()
     start = time.perf_counter()
-    r = minimum_distance(C, target=target, executor=dask_cluster)
+    r = minimum_distance(C, target=target, executor=dask_cluster,
+                         use_symmetry=False)
     elapsed = time.perf_counter() - start
     t.join()
     assert killed and elapsed > 1.5, "the worker was not killed during the run"

@@ -147,7 +147,8 @@ def _verify_one(path: str, args: argparse.Namespace, executor: Any, *,
     with StagedProgress() as bar:
         rep = verify(record.code, time_limit=args.time_limit, method=args.method,
                      target_d=args.target_d, seed=args.seed, workers=args.workers,
-                     stated=stated, source=path, progress=bar, executor=executor)
+                     stated=stated, source=path, progress=bar, executor=executor,
+                     automorphisms=record.automorphisms)
     status = render(rep, as_json=args.json, one_line=one_line)
     if args.plot:
         _plot(rep, path, args.plot)
@@ -274,10 +275,24 @@ def _distance_rows(t: Table, rep: VerifyReport) -> None:
                   f"{rep.seconds:.2f} s)")
     if rep.d_route_reason:
         t.add_row("route", escape(f"{rep.d_method.split('+')[0]}: {rep.d_route_reason}"))
+    if rep.d_argument:
+        t.add_row("lower bound by", escape(_argument_text(rep)))
     if rep.target_d is not None:
         verdict = {True: "yes, proved", False: "no: a lighter codeword exists",
                    None: "undecided within the time limit"}[rep.meets_target]
         t.add_row(f"d ≥ {rep.target_d}?", verdict)
+
+
+def _argument_text(rep: VerifyReport) -> str:
+    """The argument of the Brouwer–Zimmermann lower bound, the group and the sets."""
+    from ..distance._bz import ARGUMENTS
+
+    text = ARGUMENTS.get(rep.d_argument, rep.d_argument)
+    if rep.d_symmetry is not None:
+        text += f"; group: {rep.d_symmetry.get('description', '')}"
+    sets = ", ".join(f"rank {s.get('rank')} to {s.get('levels_done')} rows"
+                     for s in rep.d_information_sets)
+    return f"{text}; sets: {sets}" if sets else text
 
 
 def _verdict_rows(t: Table, rep: VerifyReport) -> None:

@@ -17,6 +17,12 @@ Two exact engines:
   ``sum_j max(0, w + 1 - (k - r_j))`` (Zimmermann's refinement), and the search
   stops as soon as that lower bound meets the lightest codeword seen. Weights of
   even (doubly even) codes are multiples of 2 (4), which rounds the bound up.
+  With automorphisms — cyclic or quasi-cyclic structure, detected and checked, or
+  permutations given by the user and checked — one enumeration is credited to every
+  image of its information set under the group (the group average, and for cyclic
+  codes of rate at most about 1/2 the windows of ``k`` consecutive positions that
+  start at a one, after Grassl [4]_); the plan with the least work is taken and its
+  argument named in the result (``_bz.make_plans`` proves each bound).
 
 And a third for high rate, the **dual-side route** (``n - k <= 64``): the fewest
 columns of a parity-check matrix that sum to zero. One fast upper bound,
@@ -24,7 +30,8 @@ columns of a parity-check matrix that sum to zero. One fast upper bound,
 the sums of at most two rows of each systematic generator.
 
 The package's rooms: ``_result`` (the result, the clock, the best word), ``_gray``,
-``_bz`` (with the level tasks sent to other processes), ``_dual``, ``_routes`` (the
+``_bz`` (the plans, their proved bounds, and the level tasks sent to other processes),
+``_symmetry`` (automorphisms: detection, checking, orbits), ``_dual``, ``_routes`` (the
 estimates and the choice) and ``_isd``; :func:`minimum_distance` runs the steps
 (arguments, ISD pre-pass, route, work limit, the route itself, the result).
 
@@ -38,12 +45,16 @@ References
    Hamburg-Harburg, 1996.
 .. [3] P. J. Lee and E. F. Brickell, "An observation on the security of
    McEliece's public-key cryptosystem", EUROCRYPT 1988, LNCS 330, pp. 275-280.
+.. [4] M. Grassl, "Searching for linear codes with large minimum distance", in
+   W. Bosma and J. Cannon (eds.), *Discovering Mathematics with Magma*, Springer,
+   2006, pp. 287-313.
 """
 
 from __future__ import annotations
 
 import os
 import time
+from collections.abc import Sequence
 
 import numpy as np
 
@@ -52,12 +63,13 @@ from ..code import Code
 from ..exceptions import ClaimError, ParameterError, TooExpensiveError, check_int
 from ..parallel import Executor
 from ..typing import DISTANCE_METHODS, DistanceMethod, SeedLike, StopReason
-from ._bz import RATE_BZ, bz_search, estimate_work
+from ._bz import RATE_BZ, Plan, bz_search, estimate_work
 from ._dual import dual_columns_seconds, dual_search
 from ._gray import gray_search, gray_seconds
 from ._isd import distance_upper_bound, isd_pass, quick_distance
 from ._result import INF, Best, DistanceResult, ProgressCallback, ProofClock
 from ._routes import choose_engine, human_seconds, route_estimates
+from ._symmetry import Symmetry, code_symmetry
 
 __all__ = [
     "DistanceResult",
@@ -89,6 +101,8 @@ def minimum_distance(
     seed: SeedLike = 0,
     workers: int | None = 1,
     executor: Executor | None = None,
+    automorphisms: Sequence[Sequence[int]] = (),
+    use_symmetry: bool = True,
 ) -> DistanceResult:
     """Prove the minimum distance of ``code`` (or as much as the time limit allows).
 
@@ -122,6 +136,17 @@ def minimum_distance(
         A level's lower bound is credited only when every one of its tasks completed,
         so the proved result is the one a serial run proves; once a task finds a
         codeword that settles the question the tasks not yet started are cancelled.
+    automorphisms : sequence of permutations, optional
+        Generators of a group of coordinate permutations (``i -> p[i]``, each a
+        permutation of ``range(n)``) that map the code to itself. Each is checked (a
+        wrong one raises :class:`ParameterError`, it never weakens the proof); the
+        Brouwer–Zimmermann route then credits one enumeration to every image of its
+        information set under the group.
+    use_symmetry : bool
+        Detect cyclic and quasi-cyclic structure (checked, like ``automorphisms``) for
+        the Brouwer–Zimmermann route. ``False`` with no ``automorphisms`` runs the plain
+        engine. The result's ``argument`` names the argument the bound rests on and
+        ``symmetry`` the group used.
 
     Returns
     -------
@@ -139,6 +164,8 @@ def minimum_distance(
     .. [2] K.-H. Zimmermann, "Integral Hecke modules, integral generalized Reed-Muller
        codes, and linear codes", Technical Report 3-96, Technische Universität
        Hamburg-Harburg, 1996.
+    .. [3] M. Grassl, "Searching for linear codes with large minimum distance", in
+       *Discovering Mathematics with Magma*, Springer, 2006, pp. 287-313.
 
     Examples
     --------
@@ -152,13 +179,15 @@ def minimum_distance(
     clock = ProofClock(time_limit, progress)
     best = Best(code.n)
     start_lower = code.weight_divisor  # every nonzero weight is a positive multiple of it
+    symmetry = _symmetry(code, method, automorphisms, use_symmetry)
     weight, word, codewords_pre = _pre_pass(code, method, target, time_limit, rng(seed))
     best.offer(weight, word)
-    engine, estimates, reason = _route(code, method, best.weight, target)
+    engine, estimates, reason = _route(code, method, best.weight, target, symmetry)
     clock.total = _affordable(code, engine, estimates[engine], time_limit, max_work)
     info_sets: list[dict] = []
+    plan: list[Plan] = []
     lower, stopped = _run_route(code, engine, clock, best, target, start_lower, workers,
-                                executor, info_sets)
+                                executor, info_sets, symmetry, plan)
     lower = min(lower, best.weight)
     _check_claims(code, lower, best.weight)
     return DistanceResult(
@@ -167,7 +196,27 @@ def minimum_distance(
         seconds=clock.elapsed(), stopped=None if lower == best.weight else stopped,
         reason=reason, estimates={e: float(v) for e, v in estimates.items()},
         information_sets=tuple(dict(x) for x in info_sets),
+        argument=plan[0].argument if plan else "",
+        symmetry=(plan[0].symmetry.to_dict() if plan and plan[0].symmetry is not None
+                  and plan[0].argument != "zimmermann" else None),
     )
+
+
+def _symmetry(code: Code, method: DistanceMethod, automorphisms: Sequence[Sequence[int]],
+              use_symmetry: bool) -> Symmetry | None:
+    """The checked automorphism group the Brouwer–Zimmermann route may use (None when
+    that route cannot be taken or there is none). Given generators are always checked,
+    so a wrong one is an error whichever route is taken."""
+    if isinstance(automorphisms, (str, bytes)) or not isinstance(automorphisms, Sequence):
+        raise ParameterError("Argument 'automorphisms' must be a list of permutations, not "
+                             f"{type(automorphisms).__name__}.")
+    may_use = method in ("auto", "brouwer-zimmermann") and (code.k > 22 or
+                                                             method != "auto")
+    detect = use_symmetry and may_use
+    if not automorphisms and not detect:
+        return None
+    sym = code_symmetry(code, automorphisms, detect=detect)
+    return sym if may_use else None
 
 
 def _validate(code: Code, target: int | None, method: str, workers: int | None
@@ -219,16 +268,18 @@ def _pre_pass(code: Code, method: DistanceMethod, target: int | None,
     return isd_pass(code, gen, iterations=passes, deadline=deadline)
 
 
-def _route(code: Code, method: DistanceMethod, upper: int, target: int | None
+def _route(code: Code, method: DistanceMethod, upper: int, target: int | None,
+           symmetry: Symmetry | None = None
            ) -> tuple[DistanceMethod, dict[str, float], str]:
     """The route to run, the estimated seconds of the routes considered, and why."""
     if method == "auto":
-        return choose_engine(code, upper, target)
+        return choose_engine(code, upper, target, symmetry=symmetry)
     estimates: dict[str, float] = {}
     if method == "gray":
         estimates["gray"] = gray_seconds(code.k)
     elif method == "brouwer-zimmermann":
-        estimates[method] = estimate_work(code, upper, target=target) / RATE_BZ
+        estimates[method] = estimate_work(code, upper, target=target,
+                                          symmetry=symmetry) / RATE_BZ
     else:
         estimates = {method: route_estimates(code, upper, target)[method]}
     return method, estimates, "asked for"
@@ -255,7 +306,8 @@ def _affordable(code: Code, engine: DistanceMethod, seconds: float,
 
 def _run_route(code: Code, engine: DistanceMethod, clock: ProofClock, best: Best,
                target: int | None, start_lower: int, workers: int,
-               executor: Executor | None, info_sets: list[dict]
+               executor: Executor | None, info_sets: list[dict],
+               symmetry: Symmetry | None = None, plan: list[Plan] | None = None
                ) -> tuple[int, StopReason | None]:
     """Run the chosen route: (proved lower bound, why it stopped before proving d)."""
     if engine == "gray":
@@ -263,7 +315,7 @@ def _run_route(code: Code, engine: DistanceMethod, clock: ProofClock, best: Best
     if engine == "dual-columns":
         return dual_search(code, clock, best, target, start_lower)
     return bz_search(code, clock, best, target, start_lower, workers, executor,
-                     sets_out=info_sets)
+                     sets_out=info_sets, symmetry=symmetry, plan_out=plan)
 
 
 def _gray_route(code: Code, clock: ProofClock, best: Best, target: int | None,

@@ -62,9 +62,21 @@ class DistanceResult:
     estimates : dict
         Estimated seconds (one core) of each route that was considered.
     information_sets : tuple of dict
-        Brouwer–Zimmermann only: per information set its ``rank``, ``levels_done`` and
-        the lower-bound ``contribution`` it proved (their sum, rounded up to the
-        weight divisor, is the proved lower bound).
+        Brouwer–Zimmermann only: per information set its ``rank``, ``levels_done``,
+        the lower-bound ``contribution`` it proved on its new positions (for the
+        ``"zimmermann"`` argument their sum, rounded up to the weight divisor, is the
+        proved lower bound) and the ``argument``; with an automorphism group also the
+        ``bound`` the set proves alone with the group and the ``images`` credited.
+    argument : str
+        Brouwer–Zimmermann only: what the lower bound rests on — ``"zimmermann"``
+        (disjoint information sets), ``"orbit-average"`` (the images of one
+        information set under an automorphism group), ``"orbit-average+zimmermann"``
+        (the larger of the two) or ``"cyclic-window"`` (cyclic shifts of a window of
+        ``k`` consecutive positions started at a one); see
+        :func:`gf2codes.distance._bz.make_plans`.
+    symmetry : dict or None
+        The automorphism group the bound used (``kind``, number of ``generators``,
+        ``orbits``, ``description``), or None.
     """
 
     lower: int
@@ -78,6 +90,8 @@ class DistanceResult:
     reason: str = ""
     estimates: dict[str, float] = field(default_factory=dict, compare=False)
     information_sets: tuple[dict, ...] = field(default=(), compare=False)
+    argument: str = field(default="", compare=False)
+    symmetry: dict | None = field(default=None, compare=False)
 
     @property
     def d(self) -> int | None:

@@ -9,6 +9,7 @@ from ..typing import DistanceMethod
 from ._bz import RATE_BZ, estimate_work
 from ._dual import dual_columns_seconds
 from ._gray import gray_seconds
+from ._symmetry import Symmetry
 
 __all__ = ["ROUTE_TITLES", "route_estimates", "choose_engine", "human_seconds"]
 
@@ -20,18 +21,21 @@ ROUTE_TITLES: dict[DistanceMethod, str] = {
 }
 
 
-def route_estimates(code: Code, upper_guess: int, target: int | None = None
-                    ) -> dict[str, float]:
+def route_estimates(code: Code, upper_guess: int, target: int | None = None, *,
+                    symmetry: Symmetry | None = None) -> dict[str, float]:
     """Estimated seconds (one core) of each exact route to prove d (or settle
     ``d >= target``) when a codeword of weight ``upper_guess`` is known.
 
     Routes that do not apply (the dual-side route needs ``n - k <= 64``) are absent.
+    ``symmetry`` (checked automorphisms) lets the Brouwer–Zimmermann estimate use the
+    cheapest plan the group allows.
     """
     goal = upper_guess if target is None else min(upper_guess, target)
     out: dict[str, float] = {}
     out["gray"] = gray_seconds(code.k)
     if code.k > 22:
-        out["brouwer-zimmermann"] = estimate_work(code, upper_guess, target=target) / RATE_BZ
+        out["brouwer-zimmermann"] = estimate_work(code, upper_guess, target=target,
+                                                      symmetry=symmetry) / RATE_BZ
     if code.n - code.k <= 64:
         div = code.weight_divisor
         out["dual-columns"] = dual_columns_seconds(code.n, code.k, goal, divisor=div,
@@ -39,10 +43,11 @@ def route_estimates(code: Code, upper_guess: int, target: int | None = None
     return out
 
 
-def choose_engine(code: Code, upper_guess: int, target: int | None
+def choose_engine(code: Code, upper_guess: int, target: int | None, *,
+                  symmetry: Symmetry | None = None
                   ) -> tuple[DistanceMethod, dict[str, float], str]:
     """The cheapest route by estimated time, all estimates, and the reason in words."""
-    est = route_estimates(code, upper_guess, target)
+    est = route_estimates(code, upper_guess, target, symmetry=symmetry)
     if code.k <= 22:  # microseconds: not worth a parity-check matrix (the search hot path)
         return "gray", est, f"2^{code.k} codewords take about {human_seconds(est['gray'])}"
     engine = cast(DistanceMethod, min(est, key=lambda e: (est[e], e != "gray")))
