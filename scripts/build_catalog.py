@@ -15,24 +15,37 @@ The steps:
    simplex, Reed-Muller (lengths up to 128), the Golay codes, quadratic-residue codes of
    prime length up to 47, every cyclic code of odd length up to 61 and of length 65,
    and the primitive BCH codes of lengths 63 and 127.
-2. **Derivations**: Plotkin sums ``(u | u+v)`` of the best codes found so far for every length up to
-   32, and Construction X on nested cyclic codes (the tail the shortest code found so
-   far), kept where they beat the propagated value.
-3. **Seeded random circulant codes** (seed 2024, a fixed number of rounds): double
-   circulant ``[2l, l]`` and quasi-cyclic ``[3m, m]``, ``[3m, 2m]`` codes.
-4. **Growth** (:func:`gf2codes.growth.grow`, the engine of ``gf2codes grow``), seed
+2. **Anticodes** (Solomon-Stiffler / Belov codes meeting the Griesmer bound, k <= 12)
+   and **cyclic codes of odd lengths 67..127** with redundancy at most 20 (and, up to
+   length 85, dimension at most 20), one per class of defining sets under the
+   multipliers; their shortenings and puncturings fill the cells below them.
+3. **Derivations**: Plotkin sums ``(u | u+v)`` of the best codes found so far for every
+   length up to 64, Construction X on nested cyclic codes (the tail the shortest code
+   found so far), and juxtapositions ``[G1 | G2]`` of codes of one dimension <= 20, kept
+   where they beat the propagated value.
+4. **Seeded random codes** (seed 2024, fixed numbers of rounds): double circulant
+   ``[2l, l]`` and quasi-cyclic ``[3m, m]``, ``[3m, 2m]`` codes, then ``--qc-rounds``
+   (200) quasi-cyclic codes of every index ``p`` and co-index ``m`` with one or two
+   generating rows and length 33..68, each shape with its own generator.
+5. **Records provable at import**: a new catalog proves a record's d only when one of
+   its sides has at most 2^20 words (:data:`gf2codes.catalog.checks.CHEAP_WEIGHT_WORDS`);
+   where the pool's best code of such a cell is derived from a larger record, the derived
+   code is offered as a record of its own, and the selection keeps, for every cell, both
+   the pool's best and the best among the records proved at import.
+6. **Growth** (:func:`gf2codes.growth.grow`, the engine of ``gf2codes grow``), seed
    2024: every open cell with ``n <= 32`` with ``--small-steps`` (40) steps each, then
-   the first ``--max-cells`` (150) open cells with ``33 <= n <= 64``, largest gap
-   first, with ``--max-steps`` (12) steps each.
+   the first ``--max-cells`` (150) open cells with ``33 <= n <= 64`` that a new catalog
+   proves at import (step 5), largest gap first, with ``--max-steps`` (12) steps each.
 
 The records also keep, for every ``k <= 64`` and ``3 <= d <= 8``, the shortest code
 found (of any length up to 128), so that a catalog answers those ``(k, d)`` at once.
 
-Every candidate's minimum distance is proved exactly; nothing is timed except the
-proofs' safety limits, so the same budget and seed write the same bytes (as long as
-every proof finishes within its limit, which the log reports). Only the records that
-propagation does not already imply are written: the catalog answers the other cells
-with derived codes.
+Every candidate's minimum distance is proved exactly, with no time limit: a candidate
+whose proof the engine estimates above its work budget (a fixed number of codewords, not
+a time) is refused and listed in the log, so no decision depends on the machine's speed
+or load, and the same budget and seed write the same bytes (``--quick``, a tiny budget
+with n <= 22, is what the test of that runs). Only the records that propagation does
+not already imply are written: the catalog answers the other cells with derived codes.
 """
 
 from __future__ import annotations
@@ -300,10 +313,11 @@ def _cyclic_class(n: int, zeros: frozenset[int]) -> tuple[int, ...]:
 
 
 def long_cyclic(pool: Pool, log, *, lengths=range(67, 128, 2), max_side: int = 20,
-                low_rate_up_to: int = 85) -> None:
+                low_rate_up_to: int = 99) -> None:
     """Cyclic codes of odd lengths 67..127 whose redundancy is at most ``max_side`` (their
     shortenings are high-rate codes of every length <= N_MAX) and, for lengths up to
-    ``low_rate_up_to``, whose dimension is at most ``max_side``: one code per class of
+    ``low_rate_up_to``, whose dimension is at most ``max_side`` plus the excess of the
+    length over N_MAX (shortened to length N_MAX, at most ``max_side``): one code per class of
     defining sets under the multipliers, the generator a product of the irreducible
     factors of x^n - 1 (MacWilliams & Sloane, ch. 7 sections 5 and 8)."""
     from gf2codes.polynomials import defining_set_of, factor_x_n_minus_1
@@ -323,7 +337,8 @@ def long_cyclic(pool: Pool, log, *, lengths=range(67, 128, 2), max_side: int = 2
         for size in range(1, len(by_degree) + 1):
             for combo in combinations(range(len(by_degree)), size):
                 deg = sum(by_degree[i].degree for i in combo)
-                if not (deg <= max_side or (n <= low_rate_up_to and total - deg <= max_side)):
+                low = total - deg <= max_side + max(0, n - N_MAX)  # shortened into range
+                if not (deg <= max_side or (n <= low_rate_up_to and low)):
                     continue
                 if deg >= n:
                     continue
@@ -337,9 +352,7 @@ def long_cyclic(pool: Pool, log, *, lengths=range(67, 128, 2), max_side: int = 2
             g = by_degree[combo[0]]
             for i in combo[1:]:
                 g = g * by_degree[i]
-            code = F.cyclic(n, g)
-            if min(code.k, n - code.k) <= max_side:
-                pool.offer(code, "family", time_limit=3.0)
+            pool.offer(F.cyclic(n, g), "family", time_limit=3.0)
     log(f"cyclic codes of lengths {lengths.start}..{lengths.stop - 1}: "
         f"{len(pool.items) - before} candidates")
 
@@ -478,7 +491,8 @@ def grow_phase(db: Path, args, log) -> None:
     jobs = [(f"n <= {small}", [(n, k) for n in range(1, small + 1) for k in range(1, n + 1)],
              args.small_steps, args.small_cells),
             (f"{small + 1} <= n <= {N_MAX}",
-             [(n, k) for n in range(small + 1, N_MAX + 1) for k in range(1, n + 1)],
+             [(n, k) for n in range(small + 1, N_MAX + 1) for k in range(1, n + 1)
+              if provable_at_import(n, k)],  # a search's mid-rate find would be a claim
              args.max_steps, args.max_cells)]
     try:
         for label, cells, steps, most in jobs:
