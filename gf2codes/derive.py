@@ -350,8 +350,8 @@ def juxtapose(a: Code, b: Code) -> Code:
 
     References
     ----------
-    .. [1] MacWilliams & Sloane (1977), ch. 18 section 7 and Huffman & Pless (2003),
-       section 2.9 (juxtaposition of generator matrices; sections from memory).
+    .. [1] MacWilliams & Sloane (1977), ch. 18 (building codes from old ones; the
+       juxtaposition of generator matrices, chapter from memory).
 
     >>> from gf2codes.families import simplex
     >>> C = juxtapose(simplex(3), simplex(3)); (C.n, C.k, C.d_lower)

@@ -220,7 +220,7 @@ def plotkin_sums(pool: Pool, log) -> None:
 def juxtapositions(pool: Pool, log, k_max: int = 20) -> None:
     """Juxtapositions ``[G1 | G2]`` of the best codes of one dimension ``k <= k_max``
     (``d >= d1 + d2``), for every length 33..N_MAX in increasing order, so that a new
-    code can be a half of a longer one (MacWilliams & Sloane, ch. 18 section 7)."""
+    code can be a half of a longer one (MacWilliams & Sloane, ch. 18, from memory)."""
     D, who = pool.best_table()
     added = 0
     for n in range(min(33, N_MAX // 2), N_MAX + 1):
