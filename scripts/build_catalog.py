@@ -1,9 +1,11 @@
 """Regenerate the shipped seed catalog ``catalog/seed.jsonl`` (every (n, k) with n <= 64).
 
-Run from the repository root (the figures in the README were made this way)::
+Run from the repository root (the README says which command made the shipped file)::
 
-    nice -n 10 python scripts/build_catalog.py               # the shipped budget
+    nice -n 10 python scripts/build_catalog.py               # the full budget
     nice -n 10 python scripts/build_catalog.py --pool 2      # same bytes, two processes
+    nice -n 10 python scripts/build_catalog.py --max-cells 0 # no growth phase (step 7):
+                                                             # how catalog/seed.jsonl was made
 
 The records cover every ``(n, k)`` with ``n <= 64`` (2,080 cells) at the best minimum
 distance this toolkit proves within the budget, counting the codes that the catalog's
@@ -32,7 +34,10 @@ The steps:
    where the pool's best code of such a cell is derived from a larger record, the derived
    code is offered as a record of its own, and the selection keeps, for every cell, both
    the pool's best and the best among the records proved at import.
-6. **Growth** (:func:`gf2codes.growth.grow`, the engine of ``gf2codes grow``), seed
+6. **Carried search results**: the codes that the growth phase of earlier builds found
+   (``scripts/seed_search_records.jsonl``, the search records of the seed at commit
+   d6db148), re-proved, so that a build with a smaller growth budget keeps them.
+7. **Growth** (:func:`gf2codes.growth.grow`, the engine of ``gf2codes grow``), seed
    2024: every open cell with ``n <= 32`` with ``--small-steps`` (40) steps each, then
    the first ``--max-cells`` (150) open cells with ``33 <= n <= 64`` that a new catalog
    proves at import (step 5), largest gap first, with ``--max-steps`` (12) steps each.
@@ -296,6 +301,31 @@ def circulants(pool: Pool, log, rounds: int) -> None:
     log(f"random circulant codes: {rounds} rounds, {len(pool.items)} candidates")
 
 
+#: Codes found by the growth phase of earlier builds (the ``search`` records of the seed
+#: at commit d6db148), offered again as candidates and re-proved like every other one.
+CARRIED = ROOT / "scripts" / "seed_search_records.jsonl"
+
+
+def carried(pool: Pool, log, path: Path = CARRIED) -> None:
+    """Offer the codes of an earlier build's search records (their d proved again here)."""
+    import json
+
+    from gf2codes.catalog import parse_entry_record
+
+    before = len(pool.items)
+    with open(path, encoding="utf-8") as fh:
+        for lineno, line in enumerate(fh, start=1):
+            if not line.strip():
+                continue
+            rec = parse_entry_record(json.loads(line), f"{path}, line {lineno}")
+            if rec.code.n > N_MAX:
+                continue
+            item = next(r for r in rec.recipes if r.get("source") == "search")
+            pool.offer(rec.code.with_info(recipe=item["recipe"]), "search",
+                       seed=item.get("seed"), recipe=item["recipe"])
+    log(f"carried search records: {len(pool.items) - before} candidates")
+
+
 def anticodes(pool: Pool, log) -> None:
     """The Solomon-Stiffler / Belov codes (:func:`gf2codes.families.anticode`) of length
     up to ``N_MAX + 8`` (puncturing the longer ones fills the cells just below them)."""
@@ -545,6 +575,8 @@ def main(argv: list[str] | None = None) -> int:
 
     pool = Pool()
     families(pool, log, max_length=N_MAX if args.quick else None)
+    if not args.quick:
+        carried(pool, log)
     anticodes(pool, log)
     long_cyclic(pool, log)
     plotkin_sums(pool, log)
