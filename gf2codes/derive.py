@@ -340,8 +340,8 @@ def juxtapose(a: Code, b: Code) -> Code:
     ``(m G_a | m G_b)``, an ``[n1 + n2, k, >= d1 + d2]`` code (both halves of a nonzero
     message's codeword are nonzero).
 
-    The rows are paired in the order of the two generator matrices, so the code depends on
-    them, not only on the two codes; the recipe keeps both.
+    The rows paired are those of the two codes' reduced row echelon generators, so the
+    result depends only on the two codes (and a recipe rebuilds it exactly).
 
     Raises
     ------
@@ -361,7 +361,7 @@ def juxtapose(a: Code, b: Code) -> Code:
         raise ParameterError(
             f"Argument 'b' must have the dimension of 'a', {a.k}, not {b.k}."
         )
-    G = np.concatenate([a.G, b.G], axis=1)
+    G = np.concatenate([a.rref_generator, b.rref_generator], axis=1)
     lo = a.d_lower + b.d_lower if a.d_lower is not None and b.d_lower is not None else None
     return _result(G, a, {"op": "juxtapose", "other": recipe_of(b)}, "juxtaposition", lo, None)
 

@@ -12,6 +12,7 @@ import sys
 from pathlib import Path
 
 from gf2codes.catalog import parse_entry_record
+from gf2codes.derive import rebuild
 from gf2codes.distance import minimum_distance
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -39,6 +40,10 @@ def test_quick_build_is_byte_reproducible(tmp_path):
         rec = parse_entry_record(obj, f"line {lineno}")
         result = minimum_distance(rec.code)  # proved again here, from the matrix alone
         assert result.exact and result.d == rec.d_lower == rec.d_upper, lineno
+        for item in rec.recipes:  # every recipe rebuilds the stored code
+            steps = item.get("recipe")
+            if steps and "family" in steps[0] and item.get("permutation") is None:
+                assert rebuild(steps) == rec.code, lineno
         keys.append((rec.code.n, rec.code.k))
     assert keys == sorted(keys)  # base records only, sorted by (n, k)
 

@@ -160,6 +160,9 @@ def test_juxtaposition_of_simplex_codes_and_refusal():
     J = D.juxtapose(F.simplex(3), F.simplex(3))
     assert brute_distance(J.G) == 8 and J.d_lower == 8
     assert D.rebuild(J.recipe) == J
+    # a derived half whose generator is not in echelon form rebuilds to the same code
+    J = D.juxtapose(D.shorten(F.extended_hamming(3), [0]), F.simplex(3))
+    assert D.rebuild(J.recipe) == J and J.d_lower == 8 == brute_distance(J.G)
     with pytest.raises(ParameterError, match="dimension of 'a', 3, not 4"):
         D.juxtapose(F.simplex(3), F.hamming(3))
 
