@@ -53,6 +53,7 @@ __all__ = [
     "lengthen",
     "direct_sum",
     "plotkin_sum",
+    "juxtapose",
     "append_zeros",
     "construction_x",
     "product",
@@ -334,6 +335,37 @@ def plotkin_sum(u_code: Code, v_code: Code) -> Code:
                    lo, hi)
 
 
+def juxtapose(a: Code, b: Code) -> Code:
+    """Juxtaposition ``[G_a | G_b]`` of two codes of one dimension: the message ``m`` goes to
+    ``(m G_a | m G_b)``, an ``[n1 + n2, k, >= d1 + d2]`` code (both halves of a nonzero
+    message's codeword are nonzero).
+
+    The rows paired are those of the two codes' reduced row echelon generators, so the
+    result depends only on the two codes (and a recipe rebuilds it exactly).
+
+    Raises
+    ------
+    ParameterError
+        If the two codes have different dimensions.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 18 (building codes from old ones; the
+       juxtaposition of generator matrices, chapter from memory).
+
+    >>> from gf2codes.families import simplex
+    >>> C = juxtapose(simplex(3), simplex(3)); (C.n, C.k, C.d_lower)
+    (14, 3, 8)
+    """
+    if a.k != b.k:
+        raise ParameterError(
+            f"Argument 'b' must have the dimension of 'a', {a.k}, not {b.k}."
+        )
+    G = np.concatenate([a.rref_generator, b.rref_generator], axis=1)
+    lo = a.d_lower + b.d_lower if a.d_lower is not None and b.d_lower is not None else None
+    return _result(G, a, {"op": "juxtapose", "other": recipe_of(b)}, "juxtaposition", lo, None)
+
+
 def append_zeros(code: Code, count: int = 1) -> Code:
     """Append ``count`` coordinates that are zero in every codeword: ``[n + count, k, d]``.
 
@@ -471,6 +503,8 @@ def rebuild(recipe: Sequence[Mapping[str, Any]]) -> Code:
             code = direct_sum(code, rebuild(step["other"]))
         elif op == "plotkin-sum":
             code = plotkin_sum(code, rebuild(step["v"]))
+        elif op == "juxtapose":
+            code = juxtapose(code, rebuild(step["other"]))
         elif op == "append-zeros":
             code = append_zeros(code, step.get("count", 1))
         elif op == "product":

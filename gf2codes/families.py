@@ -83,7 +83,7 @@ __all__ = [
     "quadratic_residue", "cyclic", "generator_polynomials", "GeneratorPolynomial",
     "quasi_cyclic", "double_circulant", "from_rows", "parse_polynomial", "GOLAY_POLYNOMIAL",
     "PRIMITIVE_POLYNOMIALS", "polynomial_to_octal", "bch_bound", "FamilyArgument", "Family",
-    "FAMILIES", "construction_note",
+    "FAMILIES", "construction_note", "anticode",
 ]
 
 #: Longest code the families build (a generator matrix of at most about 2^24 bits).
@@ -490,6 +490,81 @@ def cyclic(n: int, generator_polynomial: str | galois.Poly) -> Code:
                         recipe={"family": "cyclic", "n": n, "generator_polynomial": octal})
 
 
+def _anticode_plan(k: int, d: int) -> tuple[int, list[list[int]]]:
+    """Belov's choice for :func:`anticode`: ``s`` copies and, per copy, the dimensions
+    of the coordinate subspaces removed from it (first-fit, largest first)."""
+    s = -(-d // 2 ** (k - 1))
+    excess = s * 2 ** (k - 1) - d  # < 2^(k-1): its binary digits are the subspace sizes
+    dims = [u + 1 for u in range(k - 1, -1, -1) if excess >> u & 1]
+    copies: list[list[int]] = [[] for _ in range(s)]
+    for u in dims:
+        room = [c for c in copies if sum(c) + u <= k]
+        if not room:
+            raise ParameterError(
+                f"Argument 'd' = {d} has no anticode construction for k = {k}: the removed "
+                f"subspaces of dimensions {dims} do not fit disjointly into {s} "
+                f"cop{'y' if s == 1 else 'ies'} of the simplex code."
+            )
+        room[0].append(u)
+    return s, copies
+
+
+def anticode(k: int, d: int) -> Code:
+    """The Solomon-Stiffler / Belov code of dimension ``k`` and distance ``d``.
+
+    Its columns are ``s = ceil(d / 2^(k-1))`` copies of every nonzero vector of GF(2)^k
+    (``s`` simplex codes side by side) with the points of subspaces of dimensions
+    ``u_1 > u_2 > ...`` removed, where ``s 2^(k-1) - d = sum 2^(u_i - 1)`` (the binary
+    digits of the excess). The subspaces removed from one copy are spanned by disjoint
+    sets of unit vectors. A codeword ``x G`` then has weight ``s 2^(k-1) - sum over the
+    removed subspaces not inside x^perp of 2^(u_i - 1)``, at least ``d`` and equal to
+    ``d`` for ``x`` the all-ones vector, so ``d`` is exact, and the length
+    ``s (2^k - 1) - sum (2^(u_i) - 1)`` meets the Griesmer bound.
+
+    Parameters
+    ----------
+    k : int
+        Dimension, ``2 <= k <= 12``.
+    d : int
+        Minimum distance, ``1 <= d``, with a length of at most 4096.
+
+    Raises
+    ------
+    ParameterError
+        If the subspaces do not fit (Belov's condition fails for this greedy packing).
+
+    References
+    ----------
+    .. [1] G. Solomon and J. J. Stiffler, "Algebraically punctured cyclic codes",
+       *Inform. Control* 8 (1965) 170-179.
+    .. [2] B. I. Belov, "A conjecture on the Griesmer bound", in *Optimization Methods
+       and Their Applications*, Sibirsk. Energet. Inst., Irkutsk, 1974, 100-106.
+    .. [3] MacWilliams & Sloane (1977), ch. 17 section 6 (anticodes; section from
+       memory); Huffman & Pless (2003), section 2.7 (the Griesmer bound).
+
+    >>> C = anticode(3, 3); (C.n, C.k, C.d_lower, C.d_upper)   # the simplex minus a line
+    (6, 3, 3, 3)
+    """
+    k = check_int("k", k, minimum=2, maximum=12)
+    d = check_int("d", d, minimum=1)
+    s, copies = _anticode_plan(k, d)
+    points = _hamming_columns(k)  # column j is j + 1 in binary
+    value = np.arange(1, 2**k, dtype=np.int64)
+    blocks = []
+    for removed in copies:
+        keep = np.ones(value.size, dtype=bool)
+        start = 0
+        for u in removed:  # the subspace spanned by unit vectors start .. start+u-1
+            mask = ((1 << u) - 1) << start
+            keep &= (value & ~mask) != 0
+            start += u
+        blocks.append(points[:, keep])
+    G = np.concatenate(blocks, axis=1)
+    _check_length("d", G.shape[1])
+    return Code(G, name=f"anticode [{G.shape[1]},{k},{d}]",
+                recipe=[{"family": "anticode", "k": k, "d": d}], d_lower=d, d_upper=d)
+
+
 def quasi_cyclic(rows: Sequence[str] | npt.ArrayLike, m: int) -> Code:
     """A quasi-cyclic code of co-index ``m``: each row with all its block-wise shifts.
 
@@ -732,6 +807,24 @@ def _qr_space(max_length: int, wanted: Callable[[int], bool]) -> Iterator[dict[s
                           lambda p: ({"p": p},) if is_prime(p) and p % 8 in (1, 7) else ())
 
 
+def _anticode_parameters(k: int, d: int) -> tuple[int, int, int]:
+    s, copies = _anticode_plan(k, d)
+    return s * (2**k - 1) - sum(2**u - 1 for c in copies for u in c), k, d
+
+
+def _anticode_space(max_length: int, wanted: Callable[[int], bool]
+                    ) -> Iterator[dict[str, Any]]:
+    """Every ``(k, d)`` with ``2 <= k <= 12`` whose anticode exists and fits, by k then d."""
+    for k in range(2, 13):
+        for d in range(1, max_length + 1):
+            try:
+                n = _anticode_parameters(k, d)[0]
+            except ParameterError:
+                continue
+            if n <= max_length and wanted(n):
+                yield {"k": k, "d": d}
+
+
 def _rm_parameters(r: int, m: int) -> tuple[int, int, int]:
     return 2**m, sum(math.comb(m, i) for i in range(r + 1)), 2 ** (m - r)
 
@@ -790,6 +883,10 @@ FAMILIES: dict[str, Family] = {
                double_circulant,
                (FamilyArgument("first_row", "bits", "first row of A, a 0/1 string"),),
                "double-circulant 01110100111"),
+        Family("anticode", "[n, k, d] Solomon-Stiffler/Belov code meeting the Griesmer "
+               "bound: simplex copies minus subspaces", anticode,
+               (_int("k", "dimension, 2..12"), _int("d", "minimum distance", option=True)),
+               "anticode 4 --d 6", _anticode_space, _anticode_parameters),
         Family("quasi-cyclic", "quasi-cyclic code: rows of l blocks of m, with block-wise "
                "cyclic shifts", quasi_cyclic,
                (_int("m", "circulant size"),

@@ -143,6 +143,30 @@ def test_plotkin_sum_rule(n, seed):
     assert brute_distance(W.G) == W.d_lower == W.d_upper == min(2 * u.d_lower, v.d_lower)
 
 
+@given(small_codes(n_max=7, k_max=4), st.integers(0, 2**32 - 1))
+def test_juxtaposition_rule(a, seed):
+    """[n1 + n2, k, >= d1 + d2]; brute force on random pairs of one dimension."""
+    rng = np.random.default_rng(seed)
+    n2 = int(rng.integers(a.k, 8))
+    extra = (rng.random((a.k, n2 - a.k)) < 0.5).astype(np.uint8)
+    b = _exact(Code(np.hstack([np.eye(a.k, dtype=np.uint8), extra])[:, rng.permutation(n2)]))
+    J = D.juxtapose(a, b)
+    assert (J.n, J.k) == (a.n + b.n, a.k)
+    assert J.d_lower == a.d_lower + b.d_lower <= brute_distance(J.G)
+
+
+def test_juxtaposition_of_simplex_codes_and_refusal():
+    # two simplex codes side by side: every nonzero word has weight 4 + 4 (M&S ch. 1 s. 9)
+    J = D.juxtapose(F.simplex(3), F.simplex(3))
+    assert brute_distance(J.G) == 8 and J.d_lower == 8
+    assert D.rebuild(J.recipe) == J
+    # a derived half whose generator is not in echelon form rebuilds to the same code
+    J = D.juxtapose(D.shorten(F.extended_hamming(3), [0]), F.simplex(3))
+    assert D.rebuild(J.recipe) == J and J.d_lower == 8 == brute_distance(J.G)
+    with pytest.raises(ParameterError, match="dimension of 'a', 3, not 4"):
+        D.juxtapose(F.simplex(3), F.hamming(3))
+
+
 @given(small_codes(n_max=5, k_max=2), small_codes(n_max=5, k_max=2))
 def test_product_rule(a, b):
     """d = d1 d2 exactly (M&S ch. 18 section 2)."""

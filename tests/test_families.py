@@ -445,3 +445,37 @@ def test_instances_spaces_by_hand():
 def test_construction_note_names_the_designed_distance():
     assert "designed distance δ = 5" in F.construction_note(F.bch(31, 5))
     assert F.construction_note(F.hamming(3)) is None
+
+
+# ------------------------------------------------------------------ anticodes
+def _griesmer(k: int, d: int) -> int:
+    """The Griesmer bound n >= sum_{i<k} ceil(d / 2^i) (Huffman & Pless, section 2.7)."""
+    return sum(-(-d // 2**i) for i in range(k))
+
+
+@pytest.mark.parametrize("k", range(2, 7))
+def test_anticodes_meet_the_griesmer_bound_and_their_distance(k):
+    found = 0
+    for kw in F.FAMILIES["anticode"].instances(70):
+        if kw["k"] != k:
+            continue
+        code = F.anticode(**kw)
+        assert (code.k, code.n) == (k, _griesmer(k, kw["d"]))
+        assert F.FAMILIES["anticode"].parameters(**kw) == (code.n, k, kw["d"])
+        assert brute_distance(code.G) == kw["d"] == code.d_lower == code.d_upper
+        found += 1
+    assert found >= 10
+
+
+def test_anticode_known_members_and_refusal():
+    # d = 2^(k-1): the simplex code itself (MacWilliams & Sloane, ch. 1 section 9)
+    assert F.anticode(4, 8) == F.simplex(4)
+    # k = 3, d = 3: excess 4 - 3 = 1 removes one point of the [7, 3, 4] simplex code,
+    # leaving a [6, 3, 3] code (computed by hand)
+    assert (F.anticode(3, 3).n, F.anticode(3, 3).k) == (6, 3)
+    # k = 3, d = 5: two copies (14 points); the excess 8 - 5 = 3 = 2 + 1 removes a line
+    # and a point: [10, 3, 5], the Griesmer length 5 + 3 + 2 (computed by hand)
+    assert F.anticode(3, 5).n == 10
+    # k = 4, d = 1: excess 7 = 4 + 2 + 1 needs dimensions 3 + 2 + 1 = 6 > 4 in one copy
+    with pytest.raises(ParameterError, match="no anticode construction"):
+        F.anticode(4, 1)
