@@ -30,9 +30,12 @@ The steps:
    (200) quasi-cyclic codes of every index ``p`` and co-index ``m`` with one or two
    generating rows and length 33..68, each shape with its own generator.
 5. **Records provable at import**: a new catalog proves a record's d only when one of
-   its sides has at most 2^20 words (:data:`gf2codes.catalog.checks.CHEAP_WEIGHT_WORDS`);
-   where the pool's best code of such a cell is derived from a larger record, the derived
-   code is offered as a record of its own, and the selection keeps, for every cell, both
+   its sides has at most 2^20 words (:data:`gf2codes.catalog.checks.CHEAP_WEIGHT_WORDS`)
+   or the distance engine estimates its proof within
+   :data:`gf2codes.catalog.checks.CHEAP_PROOF_WORK` codewords (each candidate is tried
+   with that budget first, which decides it); where the pool's best code of a cell is
+   derived from a record that is not proved at import, the derived code is offered as a
+   record of its own, and the selection keeps, for every cell, both
    the pool's best and the best among the records proved at import.
 6. **Carried search results**: the codes that the growth phase of earlier builds found
    (``scripts/seed_search_records.jsonl``, the search records of the seed at commit
@@ -70,7 +73,7 @@ sys.path.insert(0, str(ROOT))
 
 from gf2codes import families as F  # noqa: E402
 from gf2codes.catalog import derivation_steps, open_catalog  # noqa: E402
-from gf2codes.catalog.checks import CHEAP_WEIGHT_WORDS  # noqa: E402
+from gf2codes.catalog.checks import CHEAP_PROOF_WORK, CHEAP_WEIGHT_WORDS  # noqa: E402
 from gf2codes.catalog.propagation import reach_distance, reach_length  # noqa: E402
 from gf2codes.code import Code  # noqa: E402
 from gf2codes.derive import (  # noqa: E402
@@ -111,16 +114,24 @@ class Pool:
         self.seen.add(code)
         # ``time_limit`` is a nominal budget turned into a work limit by the engine's own
         # estimate, which does not depend on the machine: a proof is refused, never cut
+        # A record is proved by a new catalog on import when its weight distribution is
+        # cheap or the distance engine's estimate is within CHEAP_PROOF_WORK (the rule of
+        # gf2codes.catalog.checks.trusted_facts); try that budget first.
+        provable = provable_at_import(code.n, code.k)
         try:
-            r = minimum_distance(code, max_work=int(time_limit * WORK_PER_SECOND))
+            r = minimum_distance(code, max_work=CHEAP_PROOF_WORK)
+            provable = True
         except TooExpensiveError:
-            self.refused.append(f"[{code.n}, {code.k}] {code.name}")
-            return None
+            try:
+                r = minimum_distance(code, max_work=int(time_limit * WORK_PER_SECOND))
+            except TooExpensiveError:
+                self.refused.append(f"[{code.n}, {code.k}] {code.name}")
+                return None
         if not r.exact:  # pragma: no cover - without a time limit every proof is exact
             raise AssertionError(f"no exact distance for {code.name}")
         self.items.append({"code": code, "d": r.d, "source": source, "seed": seed,
                            "recipe": recipe if recipe is not None else list(code.recipe),
-                           "method": r.method})
+                           "method": r.method, "provable": provable})
         return r.d
 
     def arrays(self):
@@ -440,10 +451,10 @@ def provable_records(pool: Pool, log) -> None:
     N0, K0, L0 = pool.arrays()
     nn, kk = _cells()
     reach = _reach(N0, K0, L0, nn, kk)
-    prov = np.array([provable_at_import(int(a), int(b)) for a, b in zip(N0, K0, strict=True)])
+    prov = np.array([it["provable"] for it in pool.items], dtype=bool)
     best, who = reach.max(axis=0), reach.argmax(axis=0)
     have = np.where(prov[:, None], reach, 0).max(axis=0)
-    cell_ok = np.array([provable_at_import(int(a), int(b)) for a, b in zip(nn, kk, strict=True)])
+    cell_ok = np.ones(nn.shape, dtype=bool)  # a derived code of n <= 64 may be (offer says)
     order = sorted(np.flatnonzero(cell_ok & (best > have)).tolist(),
                    key=lambda c: (-min(kk[c], nn[c] - kk[c]), -nn[c], kk[c]))
     added = 0
@@ -452,7 +463,7 @@ def provable_records(pool: Pool, log) -> None:
             continue
         code = pool.materialise(int(who[c]), int(nn[c]), int(kk[c]))
         d = pool.offer(code.with_info(recipe=recipe_of(code)), "derivation")
-        if d is None:
+        if d is None or not pool.items[-1]["provable"]:
             continue
         one = np.array([d], dtype=np.int64)
         new = _reach(np.array([code.n]), np.array([code.k]), one, nn, kk)[0]
@@ -470,7 +481,7 @@ def select(pool: Pool) -> list[int]:
     N0, K0, L0 = pool.arrays()
     nn, kk = _cells()
     reach = _reach(N0, K0, L0, nn, kk)  # (items, cells)
-    prov = np.array([provable_at_import(int(a), int(b)) for a, b in zip(N0, K0, strict=True)])
+    prov = np.array([it["provable"] for it in pool.items], dtype=bool)
     best = reach.max(axis=0)
     attains = reach == best[None, :]
     proved = np.where(prov[:, None], reach, 0)
@@ -521,8 +532,7 @@ def grow_phase(db: Path, args, log) -> None:
     jobs = [(f"n <= {small}", [(n, k) for n in range(1, small + 1) for k in range(1, n + 1)],
              args.small_steps, args.small_cells),
             (f"{small + 1} <= n <= {N_MAX}",
-             [(n, k) for n in range(small + 1, N_MAX + 1) for k in range(1, n + 1)
-              if provable_at_import(n, k)],  # a search's mid-rate find would be a claim
+             [(n, k) for n in range(small + 1, N_MAX + 1) for k in range(1, n + 1)],
              args.max_steps, args.max_cells)]
     try:
         for label, cells, steps, most in jobs:
