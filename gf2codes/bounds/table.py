@@ -22,6 +22,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
+from .._diskcache import Memo
 from .._util import clear_caches, memo
 from .formulas import check_kd, check_nd, check_nk
 from .lp import lp_value
@@ -211,6 +212,29 @@ def _base(n: int, k: int) -> tuple[int, str]:
     return min(((prof[name][k], name) for name in prof), key=lambda t: t[0])
 
 
+def _inputs_digest() -> str:
+    """A digest of everything the table is computed from: the source of the bounds
+    package and the shipped non-existence facts. A changed rule or fact is a new digest,
+    so remembered rows are never reused for a different table."""
+    import hashlib
+
+    h = hashlib.sha256()
+    for path in sorted(Path(__file__).resolve().parent.glob("*.py")):
+        h.update(path.name.encode())
+        h.update(path.read_bytes())
+    if NONEXISTENCE_FILE.exists():
+        h.update(NONEXISTENCE_FILE.read_bytes())
+    return h.hexdigest()[:20]
+
+
+@memo(1)
+def _rows_memo() -> Memo:
+    """Rows of the table beyond the fixed point (``n > TABLE_LENGTH + 1``), remembered on
+    disk: building them to n = 255 costs about 0.7 s a process (the ``verify`` verdict of a
+    [255, 231] code), reading them a few milliseconds."""
+    return Memo("bound-rows", version=_inputs_digest())
+
+
 def _extend_table(n_max: int) -> list[list[tuple[int, str]]]:
     _rows = _extended_rows()
     if not _rows:
@@ -219,6 +243,11 @@ def _extend_table(n_max: int) -> list[list[tuple[int, str]]]:
             _rows.append([(val[n][k], _describe(n, k, val[n][k], why[n][k])) for k in range(n + 1)])
     while len(_rows) <= n_max:
         n = len(_rows)
+        known = _rows_memo().get(str(n))
+        if (isinstance(known, list) and len(known) == n + 1
+                and all(isinstance(c, list) and len(c) == 2 for c in known)):
+            _rows.append([(int(v), str(lab)) for v, lab in known])
+            continue
         row: list[tuple[int, str]] = [(0, "")]
         for k in range(1, n + 1):
             cands = [_base(n, k)]
@@ -246,6 +275,7 @@ def _extend_table(n_max: int) -> list[list[tuple[int, str]]]:
                 raise AssertionError(f"bound table broken at [{n},{k}]")
             row.append((value, _short_label(label)))
         _rows.append(row)
+        _rows_memo().put(str(n), [list(c) for c in row])
     return _rows
 
 
