@@ -121,7 +121,7 @@ class Pool:
         try:
             r = minimum_distance(code, max_work=CHEAP_PROOF_WORK)
             provable = True
-        except TooExpensiveError:
+        except TooExpensiveError:  # proved with the candidate's own, larger budget
             try:
                 r = minimum_distance(code, max_work=int(time_limit * WORK_PER_SECOND))
             except TooExpensiveError:
@@ -423,6 +423,18 @@ def quasi_cyclic_phase(pool: Pool, log, rounds: int) -> None:
         f"{len(pool.items) - before} candidates")
 
 
+def proved_on_import(code: Code) -> bool:
+    """Whether a new catalog proves ``code``'s d on import (the rule of
+    :func:`gf2codes.catalog.checks.trusted_facts`): cheap weights, or the distance engine
+    within :data:`gf2codes.catalog.checks.CHEAP_PROOF_WORK`."""
+    if provable_at_import(code.n, code.k):
+        return True
+    try:
+        return minimum_distance(code, max_work=CHEAP_PROOF_WORK).exact
+    except TooExpensiveError:
+        return False
+
+
 def provable_at_import(n: int, k: int) -> bool:
     """Whether a new catalog proves the d of an ``[n, k]`` record when it imports the seed
     (its weight distribution is cheap: :data:`gf2codes.catalog.checks.CHEAP_WEIGHT_WORDS`);
@@ -617,7 +629,7 @@ def main(argv: list[str] | None = None) -> int:
             pool.items.append({"code": e.code.with_info(recipe=recipe or ()), "d": e.d_lower,
                                "source": "search", "seed": SEED,
                                "recipe": recipe or list(recipe_of(e.code)),
-                               "method": "search"})
+                               "method": "search", "provable": proved_on_import(e.code)})
         provable_records(pool, log)
         keep = select(pool)
         log(f"{len(keep)} records kept of {len(pool.items)} candidates")

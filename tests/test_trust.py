@@ -102,10 +102,28 @@ def test_trusted_records_that_contradict_themselves_or_a_check(cat_api, change, 
     assert line == 1 and message.startswith("x.jsonl, line 1") and reason in message
 
 
-def test_trusted_lie_the_isd_check_finds_is_refused(cat_api):
+def test_trusted_lie_the_isd_check_finds_is_refused(cat_api, monkeypatch):
+    from gf2codes.catalog import checks
+
+    monkeypatch.setattr(checks, "CHEAP_PROOF_WORK", 1)  # no engine proof: the ISD check
     code, true_d, _ = _big_code()
     report = cat_api.import_records([_record(code, d=true_d + 1)], source="x", verify=False)
     assert report.added == 0 and "information-set search" in report.errors[0][1]
+
+
+def test_trusted_lie_the_cheap_engine_proof_finds_is_refused(cat_api):
+    code, true_d, _ = _big_code()
+    report = cat_api.import_records([_record(code, d=true_d + 1)], source="x", verify=False)
+    assert report.added == 0
+    assert f"the code has d = {true_d} (proved here)" in report.errors[0][1]
+
+
+def test_trusted_record_of_a_mid_rate_code_is_proved_on_import(cat_api):
+    code, true_d, _ = _big_code()
+    report = cat_api.import_records([_record(code, d=true_d)], source="x", verify=False)
+    assert report.added == 1 and not report.errors
+    (entry,) = [e for e in cat_api.entries() if e.code.n == code.n and e.code.k == code.k]
+    assert entry.proved and entry.d_lower == true_d
 
 
 @pytest.fixture
@@ -127,6 +145,7 @@ def test_unexposed_lie_is_stored_as_a_claim_and_every_answer_says_so(cli, tmp_pa
     code, true_d, one = _big_code()
     assert one > true_d  # the lie below is one that a single information set misses
     monkeypatch.setattr(checks, "CHEAP_ISD_ITERATIONS", 1)
+    monkeypatch.setattr(checks, "CHEAP_PROOF_WORK", 1)  # the engine would prove it
     # the lie alone: the shipped seed's own checked claims reach [64, 32] too
     monkeypatch.setenv("GF2CODES_SHIPPED_CATALOG", "none")
     lie = tmp_path / "claim.jsonl"
