@@ -95,11 +95,12 @@ def trusted_facts(rec: EntryRecord, where: str, source: str) -> tuple[CodeFacts,
     except TooExpensiveError:
         result = None
     if result is not None and result.exact:
-        if not rec.d_lower <= result.d <= rec.d_upper:
+        proved_d = int(result.lower)  # exact: lower == upper == d
+        if not rec.d_lower <= proved_d <= rec.d_upper:
             raise ParseError(f"{where}: the record states {rec.d_lower} <= d <= "
-                             f"{rec.d_upper}, but the code has d = {result.d} (proved "
+                             f"{rec.d_upper}, but the code has d = {proved_d} (proved "
                              "here).")
-        rec.d_lower = rec.d_upper = int(result.d)
+        rec.d_lower = rec.d_upper = proved_d
         rec.proved = True
         return facts, Provenance.proved_here(result.method)
     isd = distance_upper_bound(code, iterations=CHEAP_ISD_ITERATIONS, seed=0)
