@@ -137,7 +137,7 @@ def test_syndrome_scan_against_python(seed, j, probe):
         bitmap[s >> 6] |= np.uint64(1) << np.uint64(s & 63)
     low = np.uint64((1 << r) - 1)
     visited, hit, s = _dual_kernels.syndrome_scan(cols, j, 0, n, np.uint64(0), np.uint64(0),
-                                                  low, bitmap, probe)
+                                                  low, bitmap, probe, np.uint64(0))
     # plain Python: the same subsets in lexicographic order
     seen = set(marked)
     expect = None
@@ -206,7 +206,7 @@ def test_syndrome_unmark_leaves_the_bitmap_zero(seed, j, top):
     hi = np.uint64(((1 << r) - 1) ^ ((1 << low_bits) - 1))
     bucket = np.uint64(int(rng.integers(0, 1 << (r - low_bits))) << low_bits)
     bitmap = np.zeros(max(1, (1 << low_bits) // 64), dtype=np.uint64)
-    _dual_kernels.syndrome_scan(cols, j, 0, n, hi, bucket, low, bitmap, False)
+    _dual_kernels.syndrome_scan(cols, j, 0, n, hi, bucket, low, bitmap, False, np.uint64(0))
     visited = _dual_kernels.syndrome_unmark(cols, j, hi, bucket, low, bitmap)
     assert not bitmap.any()
     assert visited == (len(list(itertools.combinations(range(n), j))) if j <= n else 0)
@@ -231,3 +231,126 @@ def test_dual_estimate_without_a_codeword_yet():
     list 2^62 levels (which took all memory when the route ran without a first word)."""
     s = _dual.dual_columns_seconds(30, 20, 1 << 62)
     assert s == _dual.dual_columns_seconds(30, 20, 31) and 0 < s < 1e6
+
+
+# ------------------------------------------- the search through one column per orbit
+def _dual_route(C: Code, symmetry, orbits: bool | None) -> tuple[int, int, list[str]]:
+    """The dual-side route alone: (proved lower bound, best weight, argument)."""
+    from gf2codes.distance._result import Best, ProofClock
+
+    best = Best(C.n)
+    arg: list[str] = []
+    lower, _ = _dual.dual_search(C, ProofClock(None, None), best, None, C.weight_divisor,
+                                 symmetry, arg, orbits=orbits)
+    return min(lower, best.weight), best.weight, arg
+
+
+def test_orbit_route_on_every_cyclic_code_up_to_23():
+    """Every cyclic code of length <= 23 (every divisor of x^n - 1 as generator,
+    gf2codes.polynomials): the search through column 0 alone proves the d that brute
+    force gives (issue 15)."""
+    from gf2codes.distance._symmetry import code_symmetry
+    from gf2codes.polynomials import generator_polynomials
+
+    count = 0
+    for n in range(3, 24):
+        for g in generator_polynomials(n):
+            C = g.build()
+            if C.k < 1 or C.k == C.n:
+                continue
+            sym = code_symmetry(C)
+            assert sym is not None and sym.transitive
+            d = brute_distance(C.G) if C.k <= 14 else minimum_distance(C, method="gray").d
+            lower, found, arg = _dual_route(C, sym, True)
+            assert lower == found == d and arg == ["orbit-columns"], (n, C.k)
+            count += 1
+    assert count > 200
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.integers(3, 9), st.integers(2, 4), st.integers(1, 3), st.integers(0, 2**32 - 1))
+def test_orbit_route_on_random_quasi_cyclic_codes(m, ell, rows, seed):
+    """Random quasi-cyclic codes (several orbits, so runs that exclude earlier orbits):
+    the orbit search, the plain search and brute force agree."""
+    from gf2codes.distance._symmetry import code_symmetry
+
+    rng = np.random.default_rng(seed)
+    gens = ["".join(map(str, rng.integers(0, 2, m * ell))) for _ in range(rows)]
+    C = families.quasi_cyclic(gens, m)
+    assume(1 <= C.k < C.n)
+    sym = code_symmetry(C)
+    # brute force holds every codeword: up to 2^16 of them
+    d = brute_distance(C.G) if C.k <= 16 else minimum_distance(C, method="gray").d
+    for orbits in (True, False):
+        lower, found, arg = _dual_route(C, sym, orbits)
+        assert lower == found == d
+        assert arg == (["orbit-columns"] if orbits and len(sym.orbits) < C.n else [])
+
+
+def test_bch_255_231_takes_the_orbit_route_and_says_so():
+    """BCH [255,231] (designed 7; d = 7, MacWilliams & Sloane 1977 ch. 9): the cyclic
+    group is detected, the dual-side route runs through column 0 only, and the result
+    names the argument and the group."""
+    C = families.bch(255, 7)
+    r = minimum_distance(C)
+    assert r.method == "dual-columns" and r.d == 7 and r.argument == "orbit-columns"
+    assert r.symmetry is not None and r.symmetry["cyclic"]
+    plain = minimum_distance(C, use_symmetry=False)
+    assert plain.d == 7 and plain.argument == "" and plain.codewords > r.codewords
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.integers(0, 2**32 - 1), st.integers(0, 4))
+def test_filtered_probe_equals_the_plain_probe(seed, j):
+    """The filtered look-up visits and reports exactly what syndrome_scan's probe does,
+    with a filter built by filter_mark from the marked subsets, whatever the bucket,
+    offset and filter size."""
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(1, 13))
+    r = int(rng.integers(2, 12))
+    low_bits = max(1, r - int(rng.integers(0, 3)))
+    cols = rng.integers(0, 1 << r, size=n, dtype=np.uint64)
+    low = np.uint64((1 << low_bits) - 1)
+    hi = np.uint64(((1 << r) - 1) ^ ((1 << low_bits) - 1))
+    bucket = np.uint64(int(rng.integers(0, 1 << (r - low_bits))) << low_bits)
+    offset = np.uint64(int(rng.integers(0, 1 << r)))
+    jm = int(rng.integers(0, 3))
+    bitmap = np.zeros(max(1, (1 << low_bits) // 64), dtype=np.uint64)
+    _dual_kernels.syndrome_scan(cols, jm, 0, n, hi, bucket, low, bitmap, False, np.uint64(0))
+    fbits = 1 << int(rng.integers(6, 10))
+    filt = np.zeros(fbits // 64, dtype=np.uint64)
+    _dual_kernels.filter_mark(cols, jm, np.uint64(fbits - 1), filt)
+    plain = _dual_kernels.syndrome_scan(cols, j, 0, n, hi, bucket, low, bitmap, True, offset)
+    fast = _dual_kernels.filtered_probe(cols, j, 0, n, hi, bucket, low, bitmap,
+                                        np.uint64(fbits - 1), filt, offset)
+    assert tuple(plain) == tuple(fast)
+
+
+def test_syndrome_scan_offset_against_python():
+    """The offset is XORed into every sum (the empty set's sum is the offset)."""
+    rng = np.random.default_rng(3)
+    for _ in range(60):
+        n = int(rng.integers(1, 10))
+        r = int(rng.integers(2, 9))
+        j = int(rng.integers(0, 4))
+        cols = rng.integers(0, 1 << r, size=n, dtype=np.uint64)
+        offset = int(rng.integers(0, 1 << r))
+        target = int(rng.integers(0, 1 << r))
+        bitmap = np.zeros(max(1, (1 << r) // 64), dtype=np.uint64)
+        bitmap[target >> 6] |= np.uint64(1) << np.uint64(target & 63)
+        visited, hit, s = _dual_kernels.syndrome_scan(
+            cols, j, 0, n, np.uint64(0), np.uint64(0), np.uint64((1 << r) - 1), bitmap,
+            True, np.uint64(offset))
+        expect = None
+        count = 0
+        for sub in itertools.combinations(range(n), j):
+            count += 1
+            v = offset
+            for i in sub:
+                v ^= int(cols[i])
+            if v == target:
+                expect = v
+                break
+        assert hit == (expect is not None) and visited == count
+        if hit:
+            assert int(s) == expect

@@ -180,14 +180,16 @@ def minimum_distance(
     best = Best(code.n)
     start_lower = code.weight_divisor  # every nonzero weight is a positive multiple of it
     symmetry = _symmetry(code, method, automorphisms, use_symmetry)
-    weight, word, codewords_pre = _pre_pass(code, method, target, time_limit, rng(seed))
+    weight, word, codewords_pre = _pre_pass(code, method, target, time_limit, rng(seed),
+                                            symmetry)
     best.offer(weight, word)
     engine, estimates, reason = _route(code, method, best.weight, target, symmetry)
     clock.total = _affordable(code, engine, estimates[engine], time_limit, max_work)
     info_sets: list[dict] = []
     plan: list[Plan] = []
+    dual_argument: list[str] = []
     lower, stopped = _run_route(code, engine, clock, best, target, start_lower, workers,
-                                executor, info_sets, symmetry, plan)
+                                executor, info_sets, symmetry, plan, dual_argument)
     lower = min(lower, best.weight)
     _check_claims(code, lower, best.weight)
     return DistanceResult(
@@ -196,9 +198,10 @@ def minimum_distance(
         seconds=clock.elapsed(), stopped=None if lower == best.weight else stopped,
         reason=reason, estimates={e: float(v) for e, v in estimates.items()},
         information_sets=tuple(dict(x) for x in info_sets),
-        argument=plan[0].argument if plan else "",
+        argument=plan[0].argument if plan else (dual_argument[0] if dual_argument else ""),
         symmetry=(plan[0].symmetry.to_dict() if plan and plan[0].symmetry is not None
-                  and plan[0].argument != "zimmermann" else None),
+                  and plan[0].argument != "zimmermann" else
+                  symmetry.to_dict() if dual_argument and symmetry is not None else None),
     )
 
 
@@ -210,8 +213,8 @@ def _symmetry(code: Code, method: DistanceMethod, automorphisms: Sequence[Sequen
     if isinstance(automorphisms, (str, bytes)) or not isinstance(automorphisms, Sequence):
         raise ParameterError("Argument 'automorphisms' must be a list of permutations, not "
                              f"{type(automorphisms).__name__}.")
-    may_use = method in ("auto", "brouwer-zimmermann") and (code.k > 22 or
-                                                             method != "auto")
+    may_use = method in ("auto", "brouwer-zimmermann", "dual-columns") and (
+        code.k > 22 or method != "auto")
     detect = use_symmetry and may_use
     if not automorphisms and not detect:
         return None
@@ -249,8 +252,8 @@ _PASS_SECONDS_PER_ROW = 4e-5
 
 
 def _pre_pass(code: Code, method: DistanceMethod, target: int | None,
-              time_limit: float | None, gen: np.random.Generator
-              ) -> tuple[int, np.ndarray, int]:
+              time_limit: float | None, gen: np.random.Generator,
+              symmetry: Symmetry | None = None) -> tuple[int, np.ndarray, int]:
     """A quick randomised pass for a light codeword: (weight, packed word, codewords).
 
     A good upper bound early sharpens the work estimate of an exact proof. A target
@@ -277,8 +280,8 @@ def _pre_pass(code: Code, method: DistanceMethod, target: int | None,
     while done < passes and not past(deadline):
         goal = best[0] if target is None else min(best[0], target)
         chunk = min(_PASS_CHUNK, passes - done)
-        if dual_columns_seconds(code.n, code.k, goal, divisor=divisor,
-                                start_lower=divisor) < chunk * _PASS_SECONDS_PER_ROW * code.k:
+        if dual_columns_seconds(code.n, code.k, goal, divisor=divisor, start_lower=divisor,
+                                symmetry=symmetry) < chunk * _PASS_SECONDS_PER_ROW * code.k:
             break
         w, word, examined = isd_pass(code, gen, iterations=chunk, deadline=deadline)
         best = (w, word, best[2] + examined) if w < best[0] else (best[0], best[1],
@@ -326,13 +329,13 @@ def _affordable(code: Code, engine: DistanceMethod, seconds: float,
 def _run_route(code: Code, engine: DistanceMethod, clock: ProofClock, best: Best,
                target: int | None, start_lower: int, workers: int,
                executor: Executor | None, info_sets: list[dict],
-               symmetry: Symmetry | None = None, plan: list[Plan] | None = None
-               ) -> tuple[int, StopReason | None]:
+               symmetry: Symmetry | None = None, plan: list[Plan] | None = None,
+               dual_argument: list[str] | None = None) -> tuple[int, StopReason | None]:
     """Run the chosen route: (proved lower bound, why it stopped before proving d)."""
     if engine == "gray":
         return _gray_route(code, clock, best, target, start_lower)
     if engine == "dual-columns":
-        return dual_search(code, clock, best, target, start_lower)
+        return dual_search(code, clock, best, target, start_lower, symmetry, dual_argument)
     return bz_search(code, clock, best, target, start_lower, workers, executor,
                      sets_out=info_sets, symmetry=symmetry, plan_out=plan)
 

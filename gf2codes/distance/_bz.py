@@ -165,6 +165,9 @@ ARGUMENTS = {
     "cyclic-window": "cyclic shifts: windows of k consecutive positions starting at a one",
     "orbit-average": "automorphism group: average over the images of one information set",
     "orbit-average+zimmermann": "the larger of Zimmermann's sum and the group average",
+    # The dual-side route's argument (gf2codes.distance._dual.dual_search).
+    "orbit-columns": "automorphism group: every codeword has an image through one "
+                     "representative column per orbit, avoiding the earlier orbits",
 }
 
 

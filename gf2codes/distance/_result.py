@@ -68,12 +68,15 @@ class DistanceResult:
         proved lower bound) and the ``argument``; with an automorphism group also the
         ``bound`` the set proves alone with the group and the ``images`` credited.
     argument : str
-        Brouwer–Zimmermann only: what the lower bound rests on — ``"zimmermann"``
+        Brouwer–Zimmermann: what the lower bound rests on — ``"zimmermann"``
         (disjoint information sets), ``"orbit-average"`` (the images of one
         information set under an automorphism group), ``"orbit-average+zimmermann"``
         (the larger of the two) or ``"cyclic-window"`` (cyclic shifts of a window of
         ``k`` consecutive positions started at a one); see
-        :func:`gf2codes.distance._bz.make_plans`.
+        :func:`gf2codes.distance._bz.make_plans`. For the dual-side route
+        ``"orbit-columns"`` when it searched only the codewords through one column per
+        orbit of an automorphism group (:func:`gf2codes.distance._dual.dual_search`),
+        else empty.
     symmetry : dict or None
         The automorphism group the bound used (``kind``, number of ``generators``,
         ``orbits``, ``description``), or None.

@@ -28,7 +28,8 @@ def route_estimates(code: Code, upper_guess: int, target: int | None = None, *,
 
     Routes that do not apply (the dual-side route needs ``n - k <= 64``) are absent.
     ``symmetry`` (checked automorphisms) lets the Brouwer–Zimmermann estimate use the
-    cheapest plan the group allows.
+    cheapest plan the group allows, and the dual-side one its search through one column
+    per orbit.
     """
     goal = upper_guess if target is None else min(upper_guess, target)
     out: dict[str, float] = {}
@@ -39,7 +40,7 @@ def route_estimates(code: Code, upper_guess: int, target: int | None = None, *,
     if code.n - code.k <= 64:
         div = code.weight_divisor
         out["dual-columns"] = dual_columns_seconds(code.n, code.k, goal, divisor=div,
-                                                   start_lower=div)
+                                                   start_lower=div, symmetry=symmetry)
     return out
 
 
