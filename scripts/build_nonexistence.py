@@ -61,12 +61,12 @@ def write_records() -> int:
     (the shipped format); timing fields of the proof are dropped, so the same codes give
     the same bytes.
     """
+    import shutil
+
     import numpy as np
 
     from gf2codes.code import Code
     from gf2codes.distance import minimum_distance
-
-    import shutil
 
     with tempfile.TemporaryDirectory() as td:
         # the cells the shipped seed already answers as well need no record of their own

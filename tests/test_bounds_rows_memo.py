@@ -1,7 +1,8 @@
 """The bound table's rows beyond the fixed point, remembered on disk (bounds/table.py).
 
 A remembered row must give exactly what computing it gives, and a change of the
-inputs (the bounds' source, the shipped non-existence facts) must not reuse old rows.
+inputs (the bounds' source, the shipped non-existence facts and LP values) must not
+reuse old rows.
 """
 
 from __future__ import annotations
@@ -57,3 +58,15 @@ def test_the_digest_follows_the_nonexistence_facts(tmp_path, monkeypatch):
     fake.write_text('{"n": 12, "k": 5, "d": 5, "nodes": 26}\n')
     monkeypatch.setattr(T, "NONEXISTENCE_FILE", fake)
     assert T._inputs_digest() != before
+
+
+def test_the_digest_follows_the_lp_values(tmp_path, monkeypatch):
+    # a changed (or removed) LP file is a new table: remembered rows must not be reused
+    before = T._inputs_digest()
+    fake = tmp_path / "lp.jsonl"
+    fake.write_text('{"n": 30, "k": 21, "d": 4}\n')
+    monkeypatch.setattr(T, "LP_BOUNDS_FILE", fake)
+    changed = T._inputs_digest()
+    assert changed != before
+    monkeypatch.setattr(T, "LP_BOUNDS_FILE", tmp_path / "absent.jsonl")
+    assert T._inputs_digest() not in (before, changed)

@@ -36,10 +36,12 @@ The best bound
 :func:`best_upper` combines the cheap bounds (Singleton, Hamming, Plotkin, Griesmer)
 over a table of all smaller parameters with the neighbour relations that puncturing,
 shortening, taking subcodes and adding a parity bit give, then takes the minimum with
-the Elias and LP bounds *at the queried point only* (the LP over the whole table would
-take minutes for ``n`` near 256). Each row of the table depends only on smaller
-lengths and on the cheap bounds one length further, so a value does not depend on
-what was asked before.
+the Elias and LP bounds *at the queried point* (solving the LP over the whole table in
+every process would take minutes for ``n`` near 256). The table's rows ``n <= 129`` also
+start from shipped certified LP values (``gf2codes/_lp_bounds.jsonl``, written once by
+``scripts/build_lp_bounds.py``) and shipped exhaustive non-existence results. Each row
+of the table depends only on smaller lengths and on the bounds one length further, so a
+value does not depend on what was asked before.
 
 References
 ----------

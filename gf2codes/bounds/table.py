@@ -3,10 +3,11 @@
 :func:`best_upper` combines the cheap bounds of the registry (Singleton, Hamming,
 Plotkin, Griesmer) over a table of all smaller parameters with the neighbour relations
 that puncturing, shortening, taking subcodes, adding a parity bit and the residual code
-give, and with the shipped exhaustive non-existence results
-(:data:`NONEXISTENCE_FILE`); then takes the minimum with the other bounds *at the
-queried point only*. Each row of the table depends only on smaller lengths and on the
-cheap bounds one length further, so a value does not depend on what was asked before.
+give, with the shipped exhaustive non-existence results (:data:`NONEXISTENCE_FILE`) and
+with the shipped certified Delsarte LP values (:data:`LP_BOUNDS_FILE`, [3]_, [4]_); then
+takes the minimum with the other bounds *at the queried point only*. Each row of the
+table depends only on smaller lengths and on the bounds one length further, so a value
+does not depend on what was asked before.
 The table and every value derived from it are memos (:func:`gf2codes._util.memo`):
 :func:`gf2codes._util.clear_caches` (or :func:`reset_tables`) forgets them.
 
@@ -16,6 +17,10 @@ References
    North-Holland, 1977, ch. 1 §9 (puncturing, shortening, extending).
 .. [2] W. C. Huffman and V. Pless, *Fundamentals of Error-Correcting Codes*,
    Cambridge University Press, 2003, §1.5 and Thm 2.7.1 (the residual code).
+.. [3] P. Delsarte, "An algebraic approach to the association schemes of coding
+   theory", *Philips Research Reports Supplements* 10, 1973.
+.. [4] MacWilliams & Sloane 1977 (as [1]), ch. 17 §4 (the linear programming bound;
+   section numbers from memory).
 """
 
 from __future__ import annotations
@@ -24,6 +29,7 @@ from pathlib import Path
 
 from .._diskcache import Memo
 from .._util import clear_caches, memo
+from ..exceptions import ParseError
 from .formulas import check_kd, check_nd, check_nk
 from .lp import lp_value
 from .registry import LP_LENGTH_LIMIT
@@ -31,13 +37,18 @@ from .results import DimensionBound, LengthBound, UpperBound
 from .upper import cheap_profiles, individual
 
 __all__ = [
-    "TABLE_LENGTH", "NONEXISTENCE_FILE", "proved_nonexistence", "bound_chain", "best_upper",
-    "least_length", "max_dimension", "reset_tables",
+    "TABLE_LENGTH", "NONEXISTENCE_FILE", "LP_BOUNDS_FILE", "proved_nonexistence",
+    "shipped_lp_bounds", "bound_chain", "best_upper", "least_length", "max_dimension",
+    "reset_tables",
 ]
 
 #: The shipped exhaustive non-existence results (written by
 #: ``scripts/build_nonexistence.py``; installed with the package).
 NONEXISTENCE_FILE = Path(__file__).resolve().parent.parent / "_nonexistence.jsonl"
+
+#: The shipped certified Delsarte LP values (written by ``scripts/build_lp_bounds.py``;
+#: installed with the package): only the cells where the LP beats the cheap bounds.
+LP_BOUNDS_FILE = Path(__file__).resolve().parent.parent / "_lp_bounds.jsonl"
 
 #: Lengths covered by the fixed-point table (rows beyond are extended one at a time).
 TABLE_LENGTH = 128
@@ -66,11 +77,71 @@ def proved_nonexistence() -> tuple[tuple[int, int, int, int], ...]:
     return tuple(out)
 
 
+@memo(1)
+def shipped_lp_bounds() -> tuple[tuple[int, int, int], ...]:
+    """The shipped certified Delsarte LP values ``(n, k, d)``.
+
+    Each says "the certified LP proves ``d(C) <= d`` for every binary linear ``[n, k]``
+    code ``C``" ([3], [4]; :func:`gf2codes.bounds.lp.lp_value`, whose certificates are
+    checked in exact integer arithmetic). The file :data:`LP_BOUNDS_FILE`
+    (``gf2codes/_lp_bounds.jsonl``) is written by ``scripts/build_lp_bounds.py``, which
+    solves every cell again with the LP memo switched off and keeps only the cells where
+    the LP is below the cheap bounds; the tests solve a sample of the lines again (all
+    of them behind ``-m slow``). An absent file gives no values (a weaker, still valid,
+    table).
+
+    Raises
+    ------
+    ParseError
+        A line that is not ``{"n": N, "k": K, "d": D}`` with ``1 <= K <= N`` and
+        ``1 <= D <= N`` (the file and line are named).
+    """
+    import json
+
+    if not LP_BOUNDS_FILE.exists():
+        return ()
+    lines = LP_BOUNDS_FILE.read_text().splitlines()
+    try:  # one parse of the whole file: a third of the time of a parse per line
+        recs = json.loads("[" + ",".join(line for line in lines if line.strip()) + "]")
+    except ValueError:
+        recs = None
+    out: list[tuple[int, int, int]] = []
+    if isinstance(recs, list):
+        for rec in recs:
+            cell = _lp_cell(rec)
+            if cell is None:
+                break
+            out.append(cell)
+        else:
+            return tuple(out)
+    for no, line in enumerate(lines, start=1):  # name the first bad line
+        try:
+            bad = bool(line.strip()) and _lp_cell(json.loads(line)) is None
+        except ValueError:
+            bad = True
+        if bad:
+            raise ParseError(f"{LP_BOUNDS_FILE}, line {no}: not an LP value "
+                             f'{{"n": N, "k": K, "d": D}} with 1 <= K, D <= N.')
+    raise AssertionError("unreachable: a record failed but no line did")  # pragma: no cover
+
+
+def _lp_cell(rec: object) -> tuple[int, int, int] | None:
+    """``(n, k, d)`` of one LP record, or None when it is not one."""
+    if not isinstance(rec, dict) or set(rec) != {"n", "k", "d"}:
+        return None
+    n, k, d = rec["n"], rec["k"], rec["d"]
+    if not all(type(v) is int for v in (n, k, d)) or not (1 <= k <= n and 1 <= d <= n):
+        return None
+    return n, k, d
+
+
 def _describe(n: int, k: int, value: int, why: _Why) -> str:
     rule, src, extra = why
     if src is None:
         if rule == "exhaustive":
             return f"exhaustive search: no [{n},{k},{value + 1}] code ({extra:,} nodes)"
+        if rule == "lp":
+            return "lp (certified Delsarte LP)"
         return rule
     cell = f"[{src[0]},{src[1]}]"
     if rule == "residual":
@@ -83,10 +154,11 @@ def _describe(n: int, k: int, value: int, why: _Why) -> str:
 def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
     """The fixed point of the propagation rules over ``n <= TABLE_LENGTH + 1``.
 
-    Start: for every cell the least of the cheap formula bounds and the shipped
-    exhaustive non-existence results. Then apply, in sweeps until nothing changes
-    (each rule is a theorem about ``D(n, k)``, the largest distance of an ``[n, k]``
-    code; a value only ever decreases, so the sweeps terminate):
+    Start: for every cell the least of the cheap formula bounds, the shipped
+    exhaustive non-existence results (:func:`proved_nonexistence`) and the shipped
+    certified LP values (:func:`shipped_lp_bounds`, rule ``lp``). Then apply, in sweeps
+    until nothing changes (each rule is a theorem about ``D(n, k)``, the largest distance
+    of an ``[n, k]`` code; a value only ever decreases, so the sweeps terminate):
 
     * shortening: ``D(n, k) <= D(n - 1, k - 1)`` ([2] Thm 1.5.7);
     * puncturing: ``D(n, k) <= D(n - 1, k) + 1`` ([1] ch. 1 §9; [2] Thm 1.5.1);
@@ -102,8 +174,9 @@ def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
       (puncture and append zero coordinates to bring any larger distance down to
       ``d``), and ``D(n, k) <= d - 1``.
 
-    The last row (``TABLE_LENGTH + 1``) takes its parity step from the cheap bounds one
-    length further. Returns the values and, per cell, the rule and source cell.
+    The last row (``TABLE_LENGTH + 1``) takes its parity step from the cheap bounds and
+    the shipped LP values one length further. Returns the values and, per cell, the rule
+    and source cell.
     """
     T = TABLE_LENGTH + 1
     val: list[list[int]] = [[0]]
@@ -117,11 +190,17 @@ def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
             wrow.append((name, None, 0))
         val.append(vrow)
         why.append(wrow)
+    above = [0] + [_base(T + 1, k)[0] for k in range(1, T + 2)]
+    for n, k, d in shipped_lp_bounds():
+        if n <= T and d < val[n][k]:
+            val[n][k] = d
+            why[n][k] = ("lp", None, 0)
+        elif n == T + 1:
+            above[k] = min(above[k], d)
     for n, k, d, nodes in proved_nonexistence():
         if n <= T and k <= n and d - 1 < val[n][k]:
             val[n][k] = d - 1
             why[n][k] = ("exhaustive", None, nodes)
-    above = [0] + [_base(T + 1, k)[0] for k in range(1, T + 2)]
     changed = True
     while changed:
         changed = False
@@ -164,7 +243,8 @@ def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
 
 
 def reset_tables() -> None:
-    """Forget every cached table value (after ``_nonexistence.jsonl`` changed).
+    """Forget every cached table value (after ``_nonexistence.jsonl`` or
+    ``_lp_bounds.jsonl`` changed).
 
     The tables are memos of :func:`gf2codes._util.memo`, so this is
     :func:`gf2codes._util.clear_caches` (which empties the other memos too).
@@ -176,8 +256,9 @@ def bound_chain(n: int, k: int) -> list[str]:
     """How the table's bound at ``(n, k)`` was obtained, one step per line.
 
     Follows the source cells of :func:`best_upper`'s table back to a formula bound or an
-    exhaustive search, e.g. ``["[16,8] d <= 5: parity [17,8]", ..., "[18,8] d <= 6:
-    griesmer"]``. Only for ``n <= TABLE_LENGTH`` (otherwise one line from the bound).
+    exhaustive search or a shipped LP value, e.g. ``["[16,8] d <= 5: parity [17,8]", ...,
+    "[18,8] d <= 6: griesmer"]`` or ``["[30,21] d <= 4: lp (certified Delsarte LP)"]``.
+    Only for ``n <= TABLE_LENGTH`` (otherwise one line from the bound).
 
     Raises
     ------
@@ -214,16 +295,18 @@ def _base(n: int, k: int) -> tuple[int, str]:
 
 def _inputs_digest() -> str:
     """A digest of everything the table is computed from: the source of the bounds
-    package and the shipped non-existence facts. A changed rule or fact is a new digest,
-    so remembered rows are never reused for a different table."""
+    package, the shipped non-existence facts and the shipped LP values. A changed rule or
+    fact is a new digest, so remembered rows are never reused for a different table."""
     import hashlib
 
     h = hashlib.sha256()
     for path in sorted(Path(__file__).resolve().parent.glob("*.py")):
         h.update(path.name.encode())
         h.update(path.read_bytes())
-    if NONEXISTENCE_FILE.exists():
-        h.update(NONEXISTENCE_FILE.read_bytes())
+    for path in (NONEXISTENCE_FILE, LP_BOUNDS_FILE):
+        h.update(path.name.encode())
+        if path.exists():
+            h.update(path.read_bytes())
     return h.hexdigest()[:20]
 
 
@@ -328,9 +411,12 @@ def best_upper(n: int, k: int) -> UpperBound:
       ``e`` on ``D(n + 1, k)`` (an ``[n, k, d]`` code with odd ``d`` extends to
       ``[n + 1, k, d + 1]``).
 
-    The Elias and LP bounds are applied at ``(n, k)`` only, and the LP also at
-    ``(n + 1, k)`` through the last rule (the LP for every smaller pair would be far too
-    slow); the table is computed once and cached.
+    The table's cells ``n <= TABLE_LENGTH + 1`` start from the shipped certified LP
+    values (:func:`shipped_lp_bounds`, solved once by ``scripts/build_lp_bounds.py``) and
+    the shipped exhaustive non-existence results as well. The Elias and LP bounds are
+    also applied at ``(n, k)``, and the LP at ``(n + 1, k)`` through the last rule
+    (solving the LP for every smaller pair in each process would be far too slow); the
+    table is computed once and cached.
 
     Parameters
     ----------
