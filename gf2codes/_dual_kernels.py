@@ -317,3 +317,217 @@ def filtered_probe(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap, filt_
                 c[t] = c[t - 1] + 1
                 part[t + 1] = part[t] ^ cols[c[t]]
     return visited, False, zero
+
+
+# ---------------------------------------------------------------- NumPy twins (small work)
+# A high-rate code whose proof needs only a few million column subsets (BCH [255,231]: 3
+# million) is settled by NumPy in a few tens of milliseconds, while importing numba and
+# loading these kernels from its cache costs about a second on the 2-core AVX2 machine.
+# The twins below give exactly the kernels' results (scalars as Python ints and bools, as
+# numba returns them) and serve calls while the kernel is not loaded, up to a budget of
+# subsets per process counted in work, not time, so the same command takes the same path
+# on any machine; tests/test_distance_dual.py runs the same inputs through both.
+
+#: Column subsets (summed and looked up) the twins may serve in one process: about 0.3 s
+#: of NumPy (BCH [511,484] needs 22 million), against about 1 s to load numba.
+SMALL_SUBSETS = 1 << 25
+#: The twins hold the sums of the smaller part of a subset in memory: at most 2 columns.
+_SMALL_DEPTH = 2
+_small_left = [SMALL_SUBSETS]
+#: Decline once numba is loaded (False only in the tests that compare twin and kernel).
+DECLINE_WHEN_LOADED = True
+
+
+def _take(work: int) -> bool:
+    """Whether ``work`` subsets still fit the twins' budget (and book them if so). Once
+    numba is loaded anyway (another kernel needed it), loading a dual kernel costs
+    milliseconds and runs several times faster than its twin, so the twins decline."""
+    import sys
+
+    if work > _small_left[0] or (DECLINE_WHEN_LOADED and "numba" in sys.modules):
+        return False
+    _small_left[0] -= work
+    return True
+
+
+def _lex_sums(cols: np.ndarray, t: int) -> tuple[np.ndarray, np.ndarray]:
+    """The sums of all ``t``-subsets of ``cols`` (``t >= 1``) in lexicographic order, and
+    ``start`` with ``start[f]`` the position of the first subset whose smallest index is
+    ``f`` (``start[n]`` the total): the subsets with smallest index at least ``f`` are the
+    tail from ``start[f]``."""
+    n = cols.shape[0]
+    sums = cols.copy()
+    start = np.arange(n + 1, dtype=np.int64)
+    for _ in range(t - 1):
+        blocks = [cols[f] ^ sums[start[f + 1]:] for f in range(n)]
+        sizes = np.array([b.shape[0] for b in blocks], dtype=np.int64)
+        start = np.concatenate(([0], np.cumsum(sizes)))
+        sums = (np.concatenate(blocks) if blocks else np.zeros(0, dtype=np.uint64))
+    return sums, start
+
+
+def _count_subsets(n: int, j: int, f_lo: int, f_hi: int) -> int:
+    import math
+
+    return sum(math.comb(n - 1 - f, j - 1) for f in range(f_lo, min(f_hi, n - j + 1)))
+
+
+def _blocks(cols: np.ndarray, j: int, f_lo: int, f_hi: int):
+    """The sums of the ``j``-subsets (``j >= 1``) whose smallest index is in
+    ``[f_lo, f_hi)``, one array per smallest index in the kernels' order (an iterator);
+    None when that is over the twins' budget."""
+    import math
+
+    n = cols.shape[0]
+    top = min(f_hi, n - j + 1)
+    if top <= f_lo:
+        return iter(())
+    if j - 1 > _SMALL_DEPTH or not _take(_count_subsets(n, j, f_lo, f_hi)
+                                          + math.comb(n, j - 1)):
+        return None
+    if j == 1:
+        return (cols[f:f + 1].copy() for f in range(f_lo, top))
+    sums, start = _lex_sums(cols, j - 1)
+    return (cols[f] ^ sums[start[f + 1]:] for f in range(f_lo, top))
+
+
+def _all_sums(cols: np.ndarray, j: int) -> np.ndarray | None:
+    """The sums of every ``j``-subset (``j >= 1``) in the kernels' order, or None."""
+    blocks = _blocks(cols, j, 0, cols.shape[0])
+    if blocks is None:
+        return None
+    parts = list(blocks)
+    return np.concatenate(parts) if parts else np.zeros(0, dtype=np.uint64)
+
+
+def _bits(s: np.ndarray, mask: np.uint64) -> tuple[np.ndarray, np.ndarray]:
+    idx = s & mask
+    return (idx >> np.uint64(6)).astype(np.int64), np.uint64(1) << (idx & np.uint64(63))
+
+
+def _syndrome_scan_small(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap, probe,
+                         offset, filt_mask=None, filt=None):
+    j, f_lo, f_hi = int(j), int(f_lo), int(f_hi)
+    zero = np.uint64(0)
+    if j == 0:
+        if f_lo > 0:
+            return 0, False, zero
+        if (offset & hi_mask) != bucket:
+            return 1, False, zero
+        wd, bit = int((offset & low_mask) >> np.uint64(6)), np.uint64(1) << (
+            (offset & low_mask) & np.uint64(63))
+        if bitmap[wd] & bit:
+            return 1, True, offset
+        if not probe:
+            bitmap[wd] |= bit
+        return 1, False, zero
+    blocks = _blocks(cols, j, f_lo, f_hi)
+    if blocks is None:
+        return None
+    visited = 0
+    for s in blocks:  # the subsets of one smallest index, in the kernel's order
+        s ^= offset
+        if probe and filt is not None:  # the filter first: it is small
+            fw, fb = _bits(s, filt_mask)
+            keep = np.flatnonzero((filt[fw] & fb) != 0)
+        else:
+            keep = None
+        sel = s if keep is None else s[keep]
+        inb = (sel & hi_mask) == bucket
+        wd, bit = _bits(sel, low_mask)
+        cand = inb & ((bitmap[wd] & bit) != 0)
+        if not probe:
+            where = np.flatnonzero(inb)
+            if where.size:
+                _, first = np.unique(sel[where], return_index=True)
+                repeat = np.ones(where.size, dtype=bool)
+                repeat[first] = False
+                cand[where[repeat]] = True
+        hits = np.flatnonzero(cand)
+        end = int(hits[0]) if hits.size else sel.shape[0]
+        if not probe:
+            mark = np.flatnonzero(inb[:end])
+            np.bitwise_or.at(bitmap, wd[mark], bit[mark])
+        if hits.size:
+            at = end if keep is None else int(keep[end])
+            return visited + at + 1, True, s[at]
+        visited += int(s.shape[0])
+    return visited, False, zero
+
+
+def _syndrome_unmark_small(cols, j, hi_mask, bucket, low_mask, bitmap):
+    n, j = cols.shape[0], int(j)
+    if j == 0:
+        if (np.uint64(0) & hi_mask) == bucket:
+            bitmap[0] = np.uint64(0)
+        return 1
+    if j > n:
+        return 0
+    s = _all_sums(cols, j)
+    if s is None:
+        return None
+    wd, _ = _bits(s[(s & hi_mask) == bucket], low_mask)
+    bitmap[wd] = np.uint64(0)
+    return int(s.shape[0])
+
+
+def _filter_mark_small(cols, j, filt_mask, filt):
+    n, j = cols.shape[0], int(j)
+    if j == 0:
+        filt[0] |= np.uint64(1)
+        return 1
+    if j > n:
+        return 0
+    s = _all_sums(cols, j)
+    if s is None:
+        return None
+    wd, bit = _bits(s, filt_mask)
+    np.bitwise_or.at(filt, wd, bit)
+    return int(s.shape[0])
+
+
+def _filtered_probe_small(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
+                          filt_mask, filt, offset):
+    if int(j) == 0:  # the kernel looks the empty set up in the bitmap alone
+        return _syndrome_scan_small(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
+                                    True, offset)
+    return _syndrome_scan_small(cols, j, f_lo, f_hi, hi_mask, bucket, low_mask, bitmap,
+                                True, offset, filt_mask, filt)
+
+
+def _unrank(n: int, j: int, p: int) -> list[int]:
+    """The ``p``-th ``j``-subset of ``range(n)`` in lexicographic order."""
+    import math
+
+    out, lo = [], 0
+    while j:
+        for f in range(lo, n):
+            count = math.comb(n - 1 - f, j - 1)
+            if p < count:
+                out.append(f)
+                lo, j = f + 1, j - 1
+                break
+            p -= count
+    return out
+
+
+def _subsets_with_sum_small(cols, j, target, out):
+    n, j, m = cols.shape[0], int(j), out.shape[0]
+    if j == 0:
+        return 1 if target == 0 and m > 0 else 0
+    if j > n:
+        return 0
+    s = _all_sums(cols, j)
+    if s is None:
+        return None
+    found = np.flatnonzero(s == target)[:m]
+    for row, p in enumerate(found.tolist()):
+        out[row, :j] = _unrank(n, j, p)
+    return int(found.shape[0])
+
+
+syndrome_scan.small = _syndrome_scan_small
+syndrome_unmark.small = _syndrome_unmark_small
+filter_mark.small = _filter_mark_small
+filtered_probe.small = _filtered_probe_small
+subsets_with_sum.small = _subsets_with_sum_small

@@ -354,3 +354,107 @@ def test_syndrome_scan_offset_against_python():
         assert hit == (expect is not None) and visited == count
         if hit:
             assert int(s) == expect
+
+
+# ------------------------------------------------- the NumPy twins of the dual kernels
+@settings(max_examples=200, deadline=None)
+@given(st.integers(0, 2**32 - 1), st.integers(0, 3), st.booleans())
+def test_numpy_twins_equal_the_kernels(seed, j, probe):
+    """Each dual kernel and its NumPy twin (used while numba is not loaded) give the same
+    result and leave the same bitmap, on random columns, buckets, offsets, chunks and
+    pre-marked bitmaps (issue 15: BCH [255,231] is then proved without numba)."""
+    rng = np.random.default_rng(seed)
+    n = int(rng.integers(1, 13))
+    r = int(rng.integers(2, 12))
+    low_bits = max(1, r - int(rng.integers(0, 3)))
+    cols = rng.integers(0, 1 << r, size=n, dtype=np.uint64)
+    low = np.uint64((1 << low_bits) - 1)
+    hi = np.uint64(((1 << r) - 1) ^ ((1 << low_bits) - 1))
+    bucket = np.uint64(int(rng.integers(0, 1 << (r - low_bits))) << low_bits)
+    offset = np.uint64(int(rng.integers(0, 1 << r)))
+    f_lo = int(rng.integers(0, n + 1))
+    f_hi = int(rng.integers(f_lo, n + 2))
+    words = max(1, (1 << low_bits) // 64)
+    start = np.zeros(words, dtype=np.uint64)
+    for s in rng.integers(0, 1 << low_bits, size=int(rng.integers(0, 4))):
+        start[int(s) >> 6] |= np.uint64(1) << np.uint64(int(s) & 63)
+    fbits = 1 << int(rng.integers(6, 9))
+    filt = rng.integers(0, 2**63, size=fbits // 64, dtype=np.uint64)
+    K = _dual_kernels
+    K.DECLINE_WHEN_LOADED = False  # numba is loaded here: compare anyway
+    try:
+        _compare_twins(K, rng, cols, j, f_lo, f_hi, hi, bucket, low, start, probe, offset,
+                       fbits, filt, r)
+    finally:
+        K.DECLINE_WHEN_LOADED = True
+
+
+def _compare_twins(K, rng, cols, j, f_lo, f_hi, hi, bucket, low, start, probe, offset,
+                   fbits, filt, r):
+
+    def both(kern, *args, bitmap_pos=None):
+        a, b = [list(args), list(args)]
+        if bitmap_pos is not None:
+            a[bitmap_pos], b[bitmap_pos] = args[bitmap_pos].copy(), args[bitmap_pos].copy()
+        got_k = kern.dispatcher(*a)
+        got_s = kern.small(*b)
+        assert got_s is not None
+        if bitmap_pos is not None:
+            assert np.array_equal(a[bitmap_pos], b[bitmap_pos])
+        return got_k, got_s
+
+    # (the twins hold sums of at most 2 columns, so they serve j <= 3; see the next test)
+    k, s = both(K.syndrome_scan, cols, j, f_lo, f_hi, hi, bucket, low, start, probe, offset,
+                bitmap_pos=7)
+    assert tuple(k) == tuple(s)
+    k, s = both(K.filtered_probe, cols, j, f_lo, f_hi, hi, bucket, low, start,
+                np.uint64(fbits - 1), filt, offset, bitmap_pos=7)
+    assert tuple(k) == tuple(s)
+    k, s = both(K.syndrome_unmark, cols, j, hi, bucket, low, start, bitmap_pos=5)
+    assert k == s
+    k, s = both(K.filter_mark, cols, j, np.uint64(fbits - 1), np.zeros_like(filt),
+                bitmap_pos=3)
+    assert k == s
+    target = np.uint64(int(rng.integers(0, 1 << r)))
+    out_k, out_s = np.zeros((2, max(j, 1)), np.int64), np.zeros((2, max(j, 1)), np.int64)
+    assert K.subsets_with_sum.dispatcher(cols, j, target, out_k) == \
+        K.subsets_with_sum.small(cols, j, target, out_s)
+    assert np.array_equal(out_k, out_s)
+
+
+def test_numpy_twins_decline_deep_or_large_calls(monkeypatch):
+    """A call beyond the twins' reach (sums of 3 or more columns held, or past the work
+    budget) is declined (None), so the compiled kernel takes it."""
+    cols = np.arange(1, 20, dtype=np.uint64)
+    bitmap = np.zeros(4, dtype=np.uint64)
+    args = (np.uint64(0), np.uint64(0), np.uint64(255), bitmap, True, np.uint64(0))
+    monkeypatch.setattr(_dual_kernels, "DECLINE_WHEN_LOADED", False)
+    assert _dual_kernels.syndrome_scan.small(cols, 4, 0, 19, *args) is None
+    monkeypatch.setattr(_dual_kernels, "_small_left", [10])
+    assert _dual_kernels.syndrome_scan.small(cols, 2, 0, 19, *args) is None
+    assert _dual_kernels.syndrome_scan.small(cols, 1, 0, 5, *args) is not None
+    monkeypatch.setattr(_dual_kernels, "DECLINE_WHEN_LOADED", True)
+    import numba  # noqa: F401  (loaded: the compiled kernels are cheap now)
+    assert _dual_kernels.syndrome_scan.small(cols, 1, 0, 5, *args) is None
+
+
+def test_bch_255_231_is_proved_without_numba(tmp_path):
+    """In a fresh process, reading BCH [255,231] (designed 7) from a matrix file and
+    proving d = 7 goes through the NumPy twins and never imports numba (the reason to
+    have them: about 1 s on the 2-core AVX2 machine). The construction itself uses
+    galois, which imports numba, so it is built here and written to the file."""
+    import subprocess
+    import sys
+
+    from gf2codes.formats import write_code
+
+    path = tmp_path / "bch255.txt"
+    write_code(families.bch(255, 7), path)
+    code = ("import sys\n"
+            "from gf2codes.formats import read_code\n"
+            "from gf2codes.distance import minimum_distance\n"
+            f"r = minimum_distance(read_code({str(path)!r}).code)\n"
+            "print(r.d, r.exact, r.argument, 'numba' in sys.modules)\n")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True).stdout.split()
+    assert out == ["7", "True", "orbit-columns", "False"]
