@@ -22,6 +22,7 @@ References
 from __future__ import annotations
 
 import dataclasses
+import os
 from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass
 from typing import Any, cast
@@ -31,7 +32,7 @@ from .code import Code
 from .distance import DistanceResult, human_seconds, minimum_distance, quick_distance
 from .exceptions import ParameterError, TooExpensiveError
 from .formats import rows_to_strings
-from .typing import VERIFY_METHODS, StopReason, VerifyMethod
+from .typing import VERIFY_METHODS, WEIGHTS_POLICIES, StopReason, VerifyMethod, WeightsPolicy
 from .weights import (
     DEFAULT_MAX_ENUMERATION,
     dual_distance,
@@ -42,13 +43,32 @@ from .weights import (
 )
 
 __all__ = ["VerifyReport", "UpperBound", "LeastLength", "verify", "VERDICT_MAX_N",
-           "VERDICT_MAX_N_TIMED"]
+           "VERDICT_MAX_N_TIMED", "WEIGHTS_AUTO_SECONDS", "weight_seconds"]
 
 #: ``progress(done, total, info)``; ``info["stage"]`` names the step ("proving d",
 #: "counting weights"), and each step starts with a call ``progress(0, 0, {"stage": ...})``.
 Progress = Callable[[int, int, dict], None]
 
-_WEIGHT_RATE = 1.5e9  # codewords per second when counting weights (see scripts/)
+#: Codewords per second and core when counting weights, by words per row: measured with
+#: ``gray_weight_histogram`` on the 2-core AVX2 machine (AMD EPYC, no AVX-512): 9.0e8,
+#: 5.5e8, 2.7e8 and 2.2e8 for 1 to 4 words, 9.9e7 for 8 and 4.9e7 for 16 (about
+#: 8.5e8 / words beyond two). An AVX-512 host is faster, so the estimate errs long.
+_WEIGHT_RATES = (9.0e8, 5.5e8)
+_WEIGHT_RATE_PER_WORD = 8.5e8
+#: ``weights="auto"`` counts the weight distribution when it is estimated to take at most
+#: this many seconds of wall time on the threads available.
+WEIGHTS_AUTO_SECONDS = 30.0
+
+
+def weight_seconds(code: Code, threads: int | None = None) -> float:
+    """Estimated wall seconds of counting the weight distribution of ``code`` (the
+    smaller of the code and its dual) on ``threads`` threads (default: one per core)."""
+    k = min(code.k, code.n - code.k)
+    words = -(-code.n // 64)
+    rate = (_WEIGHT_RATES[words - 1] if words <= len(_WEIGHT_RATES)
+            else _WEIGHT_RATE_PER_WORD / words)
+    threads = threads or os.cpu_count() or 1
+    return float(weight_enumeration_cost(code)) / (rate * min(threads, 1 << k))
 
 #: The verdict's bounds (best upper bound at (n, k), least length for (k, d)) are
 #: computed up to this length (after issue 14's table-driven bounds: 0.5 s at
@@ -102,8 +122,10 @@ class VerifyReport:
         proved contribution and the argument (with a group: the bound it proves alone
         and the images credited).
     d_argument : str
-        Brouwer–Zimmermann only: the argument of the lower bound (``"zimmermann"``,
-        ``"orbit-average"``, ``"orbit-average+zimmermann"``, ``"cyclic-window"``).
+        The argument of the lower bound when it is more than the plain route's:
+        Brouwer–Zimmermann (``"zimmermann"``, ``"orbit-average"``,
+        ``"orbit-average+zimmermann"``, ``"cyclic-window"``) or the dual-side route
+        through one column per orbit (``"orbit-columns"``); empty otherwise.
     d_symmetry : mapping or None
         The automorphism group the proof used (detected cyclic or quasi-cyclic
         structure, or the checked permutations of the input), or None.
@@ -218,7 +240,8 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
            target_d: int | None = None, seed: int = 0, workers: int | None = None,
            stated: Mapping[str, int] | None = None, source: str | None = None,
            progress: Progress | None = None, executor: Any = None,
-           automorphisms: Sequence[Sequence[int]] = ()) -> VerifyReport:
+           automorphisms: Sequence[Sequence[int]] = (),
+           weights: WeightsPolicy = "auto") -> VerifyReport:
     """Prove the parameters of ``code`` and report them (what ``gf2codes verify`` prints).
 
     Parameters
@@ -248,6 +271,12 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
     automorphisms : sequence of permutations, optional
         Coordinate permutations that map the code to itself (checked), for the proof
         of d (see :func:`gf2codes.distance.minimum_distance`).
+    weights : {"auto", "always", "never"}
+        Whether to count the weight distribution (and from it the dual distance):
+        ``auto`` when it is estimated to take at most :data:`WEIGHTS_AUTO_SECONDS`
+        (:func:`weight_seconds`), ``always`` (up to
+        :data:`gf2codes.weights.DEFAULT_MAX_ENUMERATION` codewords), ``never`` (d only).
+        A distribution not counted is listed in ``not_computed`` with the reason.
 
     Returns
     -------
@@ -270,13 +299,16 @@ def verify(code: Code, *, time_limit: float | None = None, method: VerifyMethod 
     if method not in VERIFY_METHODS:
         raise ParameterError(f"Argument 'method' must be one of {', '.join(VERIFY_METHODS)}, "
                              f"not {method!r}.")
+    if weights not in WEIGHTS_POLICIES:
+        raise ParameterError("Argument 'weights' must be one of "
+                             f"{', '.join(WEIGHTS_POLICIES)}, not {weights!r}.")
     clock = Clock(time_limit)
     res = _distance(code, method, time_limit, target_d, seed, workers, executor,
                     _stage(progress, "proving d"), automorphisms)
     notes: list[str] = []
     not_computed: list[str] = []
     dist, dual_dist = _weights(code, res, clock, _stage(progress, "counting weights"),
-                               notes, not_computed)
+                               notes, not_computed, weights, workers)
     if dist is not None and not res.exact and target_d is None:
         # The distribution is exact, so it proves d as well.
         d_from_dist = next(i for i, a in enumerate(dist) if i and a)
@@ -342,18 +374,30 @@ def _distance(code: Code, method: str, time_limit: float | None, target_d: int |
 
 
 def _weights(code: Code, res: DistanceResult, clock: Clock, progress: Progress | None,
-             notes: list[str], not_computed: list[str]
-             ) -> tuple[list[int] | None, list[int] | None]:
+             notes: list[str], not_computed: list[str], policy: WeightsPolicy = "auto",
+             workers: int | None = None) -> tuple[list[int] | None, list[int] | None]:
     """The weight distribution (and the dual's, when that was the one counted), or
-    (None, None) with a note when it is not affordable within what is left."""
+    (None, None) with a note when it is not asked for or not affordable."""
     cost = weight_enumeration_cost(code)
+    seconds = weight_seconds(code, workers)
     left = clock.left()
     if res.stopped == "interrupted":
         notes.append("interrupted (Ctrl-C): the proved interval so far is reported; the "
                      "weight distribution was skipped")
         not_computed += ["weight distribution", "dual distance"]
+    elif code.k < code.n and policy == "never":
+        notes.append("weight distribution not computed (not asked for)")
+        not_computed += ["weight distribution", "dual distance"]
+    elif (code.k < code.n and policy == "auto" and seconds > WEIGHTS_AUTO_SECONDS
+          and cost <= DEFAULT_MAX_ENUMERATION):
+        notes.append(
+            f"weight distribution not computed: it needs 2^{min(code.k, code.n - code.k)} "
+            f"codewords, about {human_seconds(seconds)} (over {WEIGHTS_AUTO_SECONDS:.0f} s); "
+            "ask for it with weights='always' (gf2codes verify --weights always)"
+        )
+        not_computed += ["weight distribution", "dual distance"]
     elif code.k < code.n and (cost > DEFAULT_MAX_ENUMERATION or
-                              (left is not None and cost / _WEIGHT_RATE > left)):
+                              (left is not None and seconds > left)):
         notes.append(
             f"weight distribution not computed: it needs 2^{min(code.k, code.n - code.k)} "
             "codewords" + ("" if left is None else " and the time limit is too short")

@@ -19,7 +19,8 @@ if TYPE_CHECKING:  # numpy is not imported at run time: `gf2codes --help` needs 
 __all__ = [
     "Question", "QUESTIONS", "DistanceMethod", "DISTANCE_METHODS", "StopReason",
     "ProvenanceKind", "ExistenceStatus", "Outcome", "Side", "FactsSide", "SeedLike",
-    "BoundKind", "VerifyMethod", "VERIFY_METHODS", "DecoderName", "IntervalName",
+    "BoundKind", "VerifyMethod", "VERIFY_METHODS", "WeightsPolicy", "WEIGHTS_POLICIES",
+    "DecoderName", "IntervalName",
 ]
 
 #: What a search optimises with the other two of n, k, d fixed: the shortest ``length``
@@ -35,6 +36,10 @@ DISTANCE_METHODS: tuple[DistanceMethod, ...] = get_args(DistanceMethod)
 #: upper end comes from information-set decoding.
 VerifyMethod = Literal["exact", "fast"]
 VERIFY_METHODS: tuple[VerifyMethod, ...] = get_args(VerifyMethod)
+#: When ``verify`` counts the weight distribution: ``auto`` when it is estimated to take
+#: at most :data:`gf2codes.report.WEIGHTS_AUTO_SECONDS`, ``always``, or ``never``.
+WeightsPolicy = Literal["auto", "always", "never"]
+WEIGHTS_POLICIES: tuple[WeightsPolicy, ...] = get_args(WeightsPolicy)
 
 #: The decoders of the BSC simulation (``auto`` picks one by the number of parity bits).
 DecoderName = Literal["auto", "syndrome", "information-set"]

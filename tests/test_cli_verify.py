@@ -329,3 +329,22 @@ def test_a_wrong_automorphism_is_one_error_line(tmp_path, bad, message):
     assert proc.returncode == 2
     assert message in proc.stderr and "bad.json" in proc.stderr
     assert len(proc.stderr.strip().splitlines()) == 1
+
+
+def test_weights_never_proves_d_only(tmp_path, capsys, golay24):
+    f = tmp_path / "g24.txt"
+    write_code(golay24, f)
+    out = _json(capsys, str(f), "--weights", "never")
+    assert out["d"] == 8 and out["d_exact"] is True and out["weight_distribution"] is None
+    assert "weight distribution" in out["not_computed"]
+    assert main(["verify", str(f), "--weights", "never"]) == 0
+    text = capsys.readouterr().out
+    assert "not asked for" in text and "PROVED" in text
+
+
+def test_bad_weights_value_is_one_line_and_status_2(tmp_path, golay24):
+    f = tmp_path / "g24.txt"
+    write_code(golay24, f)
+    p = _run("verify", str(f), "--weights", "sometimes")
+    assert p.returncode == 2 and "Traceback" not in p.stderr
+    assert "--weights" in p.stderr

@@ -103,3 +103,35 @@ def test_report_is_frozen(hamming74):
     r = verify(hamming74)
     with pytest.raises(AttributeError):
         r.d = 5  # type: ignore[misc]
+
+
+def test_weights_policy(golay24, monkeypatch):
+    """weights="never" proves d only; "auto" skips a distribution estimated to take over
+    WEIGHTS_AUTO_SECONDS and says how to ask for it; "always" counts it (issue 15)."""
+    import gf2codes.report as report
+
+    r = verify(golay24, weights="never")
+    assert r.d == 8 and r.d_exact and r.weight_distribution is None
+    assert r.dual_distance is None
+    assert {"weight distribution", "dual distance"} <= set(r.not_computed)
+    assert any("not asked for" in note for note in r.notes)
+    monkeypatch.setattr(report, "WEIGHTS_AUTO_SECONDS", 0.0)
+    r = verify(golay24)
+    assert r.weight_distribution is None and "weight distribution" in r.not_computed
+    assert any("--weights always" in note for note in r.notes)
+    r = verify(golay24, weights="always")
+    # [24,12,8]: 1, 759, 2576, 759, 1 (MacWilliams & Sloane 1977, ch. 2 §6)
+    assert [r.weight_distribution[i] for i in (0, 8, 12, 16, 24)] == [1, 759, 2576, 759, 1]
+    assert r.dual_distance == 8
+    with pytest.raises(ParameterError, match="Argument 'weights' must be one of"):
+        verify(golay24, weights="sometimes")  # type: ignore[arg-type]
+
+
+def test_weight_seconds_grows_with_the_words_per_row():
+    """The estimate uses the measured rate for the row length: per codeword, a code of
+    length 200 (4 words) costs more than one of length 60 (1 word) of the same size."""
+    from gf2codes.report import weight_seconds
+
+    short, long = Code(np.eye(20, 60, dtype=np.uint8)), Code(np.eye(20, 200, dtype=np.uint8))
+    assert weight_seconds(long, 1) > 3 * weight_seconds(short, 1) > 0
+    assert weight_seconds(short, 2) == pytest.approx(weight_seconds(short, 1) / 2)

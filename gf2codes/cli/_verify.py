@@ -12,8 +12,8 @@ from rich.table import Table
 from ..exceptions import Gf2CodesError, ParameterError, TooExpensiveError, check_int
 from ..formats import one_line as inert_text
 from ..formats import read_code
-from ..report import VerifyReport, verify
-from ..typing import VERIFY_METHODS
+from ..report import WEIGHTS_AUTO_SECONDS, VerifyReport, verify
+from ..typing import VERIFY_METHODS, WEIGHTS_POLICIES
 from ._common import (
     StagedProgress,
     add_executor_options,
@@ -57,6 +57,10 @@ def register(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--method", choices=VERIFY_METHODS, default="exact",
                    help="exact: prove d (default); fast: a quick interval, the upper end by "
                         "information-set decoding")
+    p.add_argument("--weights", choices=WEIGHTS_POLICIES, default="auto",
+                   help="count the weight distribution and the dual distance: auto (when "
+                        f"estimated to take at most {WEIGHTS_AUTO_SECONDS:.0f} s), always, "
+                        "or never (prove n, k, d only)")
     p.add_argument("--seed", type=seed_arg, default=0, help="seed for the randomised parts")
     p.add_argument("--workers", type=count_arg(1, 4096), metavar="N",
                    help="threads for the exact enumeration (default: one per core)")
@@ -148,7 +152,7 @@ def _verify_one(path: str, args: argparse.Namespace, executor: Any, *,
         rep = verify(record.code, time_limit=args.time_limit, method=args.method,
                      target_d=args.target_d, seed=args.seed, workers=args.workers,
                      stated=stated, source=path, progress=bar, executor=executor,
-                     automorphisms=record.automorphisms)
+                     automorphisms=record.automorphisms, weights=args.weights)
     status = render(rep, as_json=args.json, one_line=one_line)
     if args.plot:
         _plot(rep, path, args.plot)
