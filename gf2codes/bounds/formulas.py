@@ -26,6 +26,7 @@ theorem numbers are from memory, see there.)
 from __future__ import annotations
 
 from collections.abc import Callable
+from functools import lru_cache
 
 from .._util import memo
 from ..exceptions import check_int
@@ -212,6 +213,17 @@ def kmax_plotkin(n: int, d: int) -> int:
     Only the few longest n' are tried (the best is among them in every case we looked
     at); trying fewer shortenings can only weaken the bound, never make it wrong.
     """
+    top = min(n, 2 * d + 1)
+    if n > top:
+        # Every length tried is at most top, and each term carries n - n2: the value is
+        # (n - top) plus the value at length top (the same minimum, shifted).
+        return (n - top) + _kmax_plotkin_at(top, d)
+    return _kmax_plotkin_at(n, d)
+
+
+@lru_cache(maxsize=4096)
+def _kmax_plotkin_at(n: int, d: int) -> int:
+    """:func:`kmax_plotkin` for ``n <= 2 d + 1``."""
     top = min(n, 2 * d + 1)
     best = n  # k <= n trivially
     for n2 in range(top, max(d, top - _PLOTKIN_WINDOW) - 1, -1):

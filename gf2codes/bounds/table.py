@@ -30,7 +30,7 @@ from pathlib import Path
 from .._diskcache import Memo
 from .._util import clear_caches, memo
 from ..exceptions import ParseError
-from .formulas import check_kd, check_nd, check_nk
+from .formulas import check_kd, check_nd, check_nk, kmax_hamming
 from .lp import lp_value
 from .registry import LP_LENGTH_LIMIT
 from .results import DimensionBound, LengthBound, UpperBound
@@ -152,6 +152,47 @@ def _describe(n: int, k: int, value: int, why: _Why) -> str:
 
 @memo(1)
 def _fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
+    """:func:`_compute_fixed_table`, remembered on disk under the digest of its inputs
+    (:func:`_inputs_digest`): computing it costs about 0.25 s a process (every verdict,
+    bound and table view pays it), reading it a few milliseconds. A remembered table of
+    the wrong shape is computed again."""
+    memo_ = _rows_memo()
+    known = memo_.get("fixed-table")
+    table = _table_from_json(known)
+    if table is not None:
+        return table
+    val, why = _compute_fixed_table()
+    memo_.put("fixed-table", [val, [[[r, list(s) if s else None, e] for r, s, e in row]
+                                    for row in why]])
+    return val, why
+
+
+def _table_from_json(obj: object) -> tuple[list[list[int]], list[list[_Why]]] | None:
+    """The table stored by :func:`_fixed_table`, or None when ``obj`` is not one."""
+    T = TABLE_LENGTH + 1
+    if not (isinstance(obj, list) and len(obj) == 2):
+        return None
+    vals, whys = obj
+    if not (isinstance(vals, list) and isinstance(whys, list)
+            and len(vals) == len(whys) == T + 1):
+        return None
+    val: list[list[int]] = []
+    why: list[list[_Why]] = []
+    for n in range(T + 1):
+        vrow, wrow = vals[n], whys[n]
+        if not (isinstance(vrow, list) and isinstance(wrow, list)
+                and len(vrow) == len(wrow) == n + 1):
+            return None
+        try:
+            val.append([int(v) for v in vrow])
+            why.append([(str(r), (int(src[0]), int(src[1])) if src else None, int(e))
+                        for r, src, e in wrow])
+        except (TypeError, ValueError, IndexError):
+            return None
+    return val, why
+
+
+def _compute_fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
     """The fixed point of the propagation rules over ``n <= TABLE_LENGTH + 1``.
 
     Start: for every cell the least of the cheap formula bounds, the shipped
@@ -453,6 +494,11 @@ def _least_length(k: int, d: int) -> LengthBound:
     # the answer n* has best_upper(n* - 1, k) < d, a proof that no [n* - 1, k, d] code
     # exists, and then no shorter one either (append zero coordinates).
     n = k + d - 1
+    # Lengths the Hamming bound alone rules out are ruled out by _best too (it is one of
+    # the bounds _best takes the least of, and monotone in d): skip them at the cost of a
+    # ball volume each (least_length(231, 7): 2 calls of _best instead of 17).
+    while n <= LP_LENGTH_LIMIT and kmax_hamming(n, d) < k:
+        n += 1
     while n <= LP_LENGTH_LIMIT and _best(n, k).d < d:
         n += 1
     if n > LP_LENGTH_LIMIT and _best(n, k).d < d:
