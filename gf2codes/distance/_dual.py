@@ -70,11 +70,11 @@ class _Pass(NamedTuple):
     ``cols`` (offset 0), then look up the sums of the ``probe``-subsets XOR ``offset``
     (no lookup when ``probe`` is None: a collision of two marks is the hit).
 
-    ``index`` maps positions in ``cols`` to coordinates of the code; ``rep`` is the
+    ``coords`` maps positions in ``cols`` to coordinates of the code; ``rep`` is the
     fixed coordinate of an orbit pass (-1 for none)."""
 
     cols: np.ndarray
-    index: np.ndarray
+    coords: np.ndarray
     mark: int
     probe: int | None
     offset: int
@@ -199,8 +199,8 @@ def _dual_witness(n: int, all_cols: np.ndarray, p: _Pass, syndrome: int, probed:
         assert len(found) == 2, "the dual-side scan reported a collision that is not there"
         a, b = found
     word = np.zeros(n, dtype=np.uint8)
-    word[p.index[a]] ^= 1
-    word[p.index[b]] ^= 1
+    word[p.coords[a]] ^= 1
+    word[p.coords[b]] ^= 1
     if probed and p.rep >= 0:
         word[p.rep] ^= 1
     support = word.astype(bool)
