@@ -19,7 +19,10 @@ Prints, in one run:
 (c) high-rate codes (the issue-15 targets), whose proofs take the dual-side route;
 (d) codes with automorphisms (issue 15, point 2): the proof with the detected cyclic or
     quasi-cyclic structure beside the plain engine (``use_symmetry=False``) on the same
-    machine in the same run, and their ratio.
+    machine in the same run, and their ratio;
+(e) whole processes: ``gf2codes verify`` of the high-rate codes of (c), read from matrix
+    files, wall time from start to exit (median of 3 after a warm-up run), with
+    ``--weights never`` (n, k, d and the verdict) and with the default ``auto``.
 
 The CPU's vector features, numba's target (``NUMBA_CPU_NAME``/``NUMBA_CPU_FEATURES``;
 ``NUMBA_CPU_NAME=haswell NUMBA_CPU_FEATURES=""`` gives AVX2-only code) and the load
@@ -33,6 +36,7 @@ before anything is timed.
 from __future__ import annotations
 
 import argparse
+import json
 import os
 import platform
 import shutil
@@ -321,7 +325,7 @@ def random_code(n: int, k: int, seed: int) -> Code:
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--quick", action="store_true", help="skip the BCH [127,64] proof")
-    ap.add_argument("--only", choices=("a", "b", "c", "d"), help="run only one section")
+    ap.add_argument("--only", choices=("a", "b", "c", "d", "e"), help="run only one section")
     args = ap.parse_args()
     cores = os.cpu_count() or 1
     print(f"# gf2codes distance benchmark — {platform.processor() or platform.machine()}, "
@@ -399,6 +403,43 @@ def main() -> None:
 
     if args.only in (None, "d"):
         symmetry_rows(cores, quick=args.quick)
+
+    if args.only in (None, "e"):
+        whole_process_rows()
+
+
+def whole_process_rows() -> None:
+    """Section (e): ``gf2codes verify FILE`` as a user runs it, one process per run."""
+    import statistics
+    import sys
+
+    from gf2codes.formats import write_code
+
+    print("\n## (e) whole process: gf2codes verify FILE (median of 3, warm caches)")
+    print("| code | --weights | seconds | d |")
+    print("|---|---|---|---|")
+    codes = [
+        ("BCH [255,231] (designed 7)", families.bch(255, 7)),
+        ("BCH [511,484] (designed 7)", families.bch(511, 7)),
+        ("random [1024,994], seed 1024", random_code(1024, 994, 1024)),
+        ("BCH [255,223] (designed 9)", families.bch(255, 9)),
+    ]
+    with tempfile.TemporaryDirectory() as tmp:
+        for label, C in codes:
+            path = Path(tmp) / "code.txt"
+            write_code(C, path)
+            for weights in ("never", "auto"):
+                cmd = [sys.executable, "-m", "gf2codes", "verify", str(path), "--weights",
+                       weights, "--json"]
+                times, d = [], None
+                for run in range(4):  # the first run warms numba's and the memos' caches
+                    t = time.perf_counter()
+                    out = subprocess.run(cmd, capture_output=True, text=True, check=True)
+                    if run:
+                        times.append(time.perf_counter() - t)
+                    d = json.loads(out.stdout)["d"]
+                print(f"| {label} | {weights} | {statistics.median(times):.2f} | {d} |",
+                      flush=True)
 
 
 def quasi_cyclic_example(m: int, blocks: int) -> Code:

@@ -249,6 +249,9 @@ _PASS_CHUNK = 5
 #: Modelled seconds of one Lee-Brickell pass per generator row (9 ms for the 231 rows of
 #: BCH [255,231] on one core of the development machine, AVX-512 host, load about 1).
 _PASS_SECONDS_PER_ROW = 4e-5
+#: Chunks of passes that a proof may cost for the pre-pass to stop after a chunk that
+#: found no lighter word.
+_STALE_CHUNKS = 4
 
 
 def _pre_pass(code: Code, method: DistanceMethod, target: int | None,
@@ -277,13 +280,20 @@ def _pre_pass(code: Code, method: DistanceMethod, target: int | None,
     # formula, not a clock, so the passes run are the same on any machine.
     best = isd_pass(code, gen, iterations=0, deadline=None)
     done = 0
+    stale = False  # the last chunk found nothing lighter
     while done < passes and not past(deadline):
         goal = best[0] if target is None else min(best[0], target)
         chunk = min(_PASS_CHUNK, passes - done)
-        if dual_columns_seconds(code.n, code.k, goal, divisor=divisor, start_lower=divisor,
-                                symmetry=symmetry) < chunk * _PASS_SECONDS_PER_ROW * code.k:
+        proof = dual_columns_seconds(code.n, code.k, goal, divisor=divisor,
+                                     start_lower=divisor, symmetry=symmetry)
+        cost = chunk * _PASS_SECONDS_PER_ROW * code.k
+        # Stop when the proof costs less than the next chunk, or costs only a few chunks
+        # and the last chunk found nothing lighter (BCH [511,484]: the weight-7 word is
+        # found early; the other passes cost half the proof and cannot find a lighter one).
+        if proof < cost or (stale and proof < _STALE_CHUNKS * cost):
             break
         w, word, examined = isd_pass(code, gen, iterations=chunk, deadline=deadline)
+        stale = w >= best[0]
         best = (w, word, best[2] + examined) if w < best[0] else (best[0], best[1],
                                                                   best[2] + examined)
         done += chunk
