@@ -113,6 +113,57 @@ def test_combination_table_min_weight_equals_brute_force(seed, n, a, w1, L, with
     assert _weight(base ^ _sum_rows(head, combo[:w1]) ^ table[t]) == expect
 
 
+@given(st.integers(0, 2**32 - 1), LENGTHS, st.integers(1, 10), st.integers(1, 4),
+       st.integers(0, 40), st.booleans(), st.integers(1, 50))
+def test_extended_tasks_visit_the_same_combinations(seed, n, a, w1, L, with_base, budget):
+    """A level task with head rows moved into its table (distance._bz._extend, the
+    combination_ext_min_weight kernel) visits every combination of w1 head rows and one
+    table entry once (L = 0: no table), finds the brute-force least weight, names a
+    combination of that weight, and resumes from its state after any budget."""
+    from gf2codes.distance import _bz
+
+    rng = np.random.default_rng(seed)
+    w1 = min(w1, a)
+    _, head = _packed(rng, a, n)
+    W = head.shape[1]
+    table = _packed(rng, L, n)[1] if L else None
+    base = _packed(rng, 1, n)[1][0] if with_base else np.zeros(W, np.uint64)
+    AT = np.ascontiguousarray(head.T)
+    TT = None if table is None else np.ascontiguousarray(table.T)
+    subsets = None if table is None else np.arange(L, dtype=np.uint8).reshape(L, 1)
+    task = _bz.Task(AT, np.arange(a, dtype=np.int64), w1, base, TT, subsets)
+    old = (_bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE)
+    _bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE = 16, 1 << 12, 64  # extend small cases
+    try:
+        task = _bz._extend(task)
+    finally:
+        _bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE = old
+    rows = [(t,) for t in range(L)] if L else [()]
+    combos = list(itertools.combinations(range(a), w1))
+    expect = min(_weight(base ^ _sum_rows(head, c) ^ (table[t[0]] if t else 0))
+                 for c in combos for t in rows)
+    if task.ext is None:
+        return  # nothing to extend here (the plain kernels are tested above)
+    e, heads, LL, ET, starts = task.ext
+    p = w1 - e
+    state = np.arange(max(p, 1), dtype=np.int64)
+    combo = np.zeros(max(p, 1), dtype=np.int64)
+    total, best, found = 0, 1 << 62, None
+    while True:
+        visited, wt, t, finished = K.combination_ext_min_weight(
+            AT, p, a - e, state, ET, starts, budget, -1, combo, base)
+        total += visited
+        if wt < best:
+            used = combo[:p].tolist() + heads[t // LL].tolist()
+            word = base ^ _sum_rows(head, used) ^ (table[t % LL] if L else 0)
+            best, found = wt, _weight(word)
+            assert len(set(used)) == w1
+        if finished:
+            break
+    assert total == len(combos) * len(rows)
+    assert best == expect == found
+
+
 @given(st.integers(0, 2**32 - 1), LENGTHS, st.integers(1, 14), st.integers(0, 8))
 def test_gray_kernels_equal_brute_force(seed, n, k, stop_at):
     rng = np.random.default_rng(seed)
