@@ -132,17 +132,19 @@ def test_extended_tasks_visit_the_same_combinations(seed, n, a, w1, L, with_base
     TT = None if table is None else np.ascontiguousarray(table.T)
     subsets = None if table is None else np.arange(L, dtype=np.uint8).reshape(L, 1)
     task = _bz.Task(AT, np.arange(a, dtype=np.int64), w1, base, TT, subsets)
-    old = (_bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE)
-    _bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE = 16, 1 << 12, 64  # extend small cases
+    old = (_bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE, _bz._EXT_WORK)
+    # extend small cases too
+    _bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE, _bz._EXT_WORK = 16, 1 << 12, 64, 1
     try:
         task = _bz._extend(task)
     finally:
-        _bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE = old
+        _bz._EXT_MIN, _bz._EXT_MAX, _bz._EXT_TABLE, _bz._EXT_WORK = old
     rows = [(t,) for t in range(L)] if L else [()]
     combos = list(itertools.combinations(range(a), w1))
     expect = min(_weight(base ^ _sum_rows(head, c) ^ (table[t[0]] if t else 0))
                  for c in combos for t in rows)
     if task.ext is None:
+        assert L == 0  # with a table, one head row always fits these limits
         return  # nothing to extend here (the plain kernels are tested above)
     e, heads, LL, ET, starts = task.ext
     p = w1 - e

@@ -459,6 +459,9 @@ _EXT_MIN = 2048
 _EXT_MAX = 1 << 14
 _EXT_TABLE = 128  # tables of at least this many entries are left as they are
 _EXT_ROWS = 3
+#: ... and only in a task of at least this many codewords, so that small proofs (BCH
+#: [63,36], 5e5 codewords in all) do not build tables they would scan a few times.
+_EXT_WORK = 1 << 20
 
 
 def _extend(task: Task) -> Task:
@@ -470,7 +473,7 @@ def _extend(task: Task) -> Task:
     """
     a = task.head.shape[1]
     L = 1 if task.table is None else task.table.shape[1]
-    if L >= _EXT_TABLE or task.w1 < 1:
+    if L >= _EXT_TABLE or task.w1 < 1 or math.comb(a, task.w1) * L < _EXT_WORK:
         return task
     e = 0
     for trial in range(1, min(task.w1, _EXT_ROWS) + 1):
