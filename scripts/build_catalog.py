@@ -78,6 +78,8 @@ from gf2codes.catalog.propagation import reach_distance, reach_length  # noqa: E
 from gf2codes.code import Code  # noqa: E402
 from gf2codes.derive import (  # noqa: E402
     construction_x,
+    construction_y1,
+    extend,
     juxtapose,
     plotkin_sum,
     rebuild,
@@ -293,6 +295,81 @@ def construction_x_phase(pool: Pool, log) -> None:
                     D[n + a, c1.k] = d
                     added += 1
     log(f"construction X: {added} cells improved, {len(pool.items)} candidates")
+
+
+#: Dual codes of at most this dimension are enumerated in full by :func:`_dual_words`.
+Y1_FULL_DUAL = 20
+
+
+def _dual_words(code: Code) -> dict[int, np.ndarray]:
+    """One word of the dual of ``code`` for each weight found, as 0/1 rows: every word
+    when the dual has dimension at most :data:`Y1_FULL_DUAL` (the first of each weight in
+    the order of the reduced echelon basis), else the basis rows, their sums in pairs and
+    the lightest word the engine finds within a small work budget. Deterministic."""
+    H = code.dual().rref_generator.astype(np.uint8)
+    r, n = H.shape
+    found: dict[int, np.ndarray] = {}
+    if r <= Y1_FULL_DUAL:
+        words = np.zeros((1, 2), dtype=np.uint64)
+        packed = np.zeros((r, 2), dtype=np.uint64)
+        for j in range(n):
+            packed[:, j // 64] |= H[:, j].astype(np.uint64) << np.uint64(j % 64)
+        for row in packed:
+            words = np.vstack([words, words ^ row[None, :]])
+        weights = np.bitwise_count(words).sum(axis=1)
+        for w in np.unique(weights[1:]).tolist():
+            i = int(np.flatnonzero(weights == w)[0])
+            bits = [(int(words[i, j // 64]) >> (j % 64)) & 1 for j in range(n)]
+            found[int(w)] = np.array(bits, dtype=np.uint8)
+        return found
+    rows = [H[i] for i in range(r)]
+    rows += [H[i] ^ H[j] for i in range(r) for j in range(i + 1, r)]
+    try:
+        rows.append(minimum_distance(code.dual(), max_work=CHEAP_PROOF_WORK).witness)
+    except TooExpensiveError:
+        pass
+    for row in rows:
+        found.setdefault(int(row.sum()), np.asarray(row, dtype=np.uint8))
+    return found
+
+
+def construction_y1_phase(pool: Pool, log, slack: int = 0,
+                          kinds: tuple[str, ...] | None = ("cyclic", "bch")) -> None:
+    """Construction Y1 (:func:`gf2codes.derive.construction_y1`) on the cyclic and BCH
+    codes of the pool of length up to 2 N_MAX and on their extensions: for each weight
+    ``w`` of a word of the dual (:func:`_dual_words`) with ``n - w <= N_MAX``, the
+    ``[n - w, k - w + 1, >= d]`` code is offered where ``d + slack`` beats the pool's
+    best (its proved d may exceed the base's) (MacWilliams & Sloane, ch. 18 section 7.1,
+    from memory)."""
+    D, _ = pool.best_table()
+    tried = added = 0
+    bases = []
+    for it in pool.items:
+        recipe = it["recipe"] or []
+        if (len(recipe) == 1 and (kinds is None or recipe[0].get("family") in kinds)
+                and it["code"].n <= 2 * N_MAX and it["code"].k > 1):
+            bases.append((it["code"].with_info(d_lower=it["d"]), it["d"]))
+            if it["d"] % 2 == 1 and it["code"].n < 2 * N_MAX:
+                bases.append((extend(it["code"].with_info(d_lower=it["d"])), it["d"] + 1))
+    for base, d in bases:
+        n, k = base.n, base.k
+        weights = range(max(2, n - N_MAX), min(k, n - 1) + 1)  # n - w <= N_MAX, k' >= 1
+        if n - k < 2 or not any(d + slack > D[n - w, k - w + 1] for w in weights):
+            continue  # no dual word weight could give a better code: skip enumerating
+        for w, word in sorted(_dual_words(base).items()):
+            if w not in weights or d + slack <= D[n - w, k - w + 1]:
+                continue
+            m = n - w
+            code = construction_y1(base, word)
+            if d + slack <= D[m, code.k]:
+                continue
+            tried += 1
+            got = pool.offer(code, "derivation", time_limit=5.0)
+            if got is not None and got > D[m, code.k]:
+                D[m, code.k] = got
+                added += 1
+    log(f"construction Y1: {len(bases)} base codes, {tried} offered, {added} cells "
+        f"improved, {len(pool.items)} candidates")
 
 
 def circulants(pool: Pool, log, rounds: int) -> None:
@@ -601,6 +678,7 @@ def main(argv: list[str] | None = None) -> int:
         carried(pool, log)
     anticodes(pool, log)
     long_cyclic(pool, log)
+    construction_y1_phase(pool, log)
     plotkin_sums(pool, log)
     circulants(pool, log, args.circulant_rounds)
     quasi_cyclic_phase(pool, log, args.qc_rounds)
