@@ -1,6 +1,6 @@
 """New codes from old: puncture, shorten, extend, augment, expurgate, lengthen,
 appending zero coordinates, direct sum, Plotkin sum ``(u | u+v)``, Construction X,
-product, dual.
+Construction Y1, product, dual.
 
 Every function returns a new :class:`~gf2codes.code.Code` whose ``recipe`` is the
 input's recipe plus one step (``{"op": "shorten", "coords": [0, 1]}``); a binary
@@ -25,7 +25,8 @@ References
    Codes*, North-Holland, 1977: ch. 1 section 9 (puncturing, extending,
    shortening, augmenting, expurgating, lengthening), ch. 2 section 9 (the
    ``|u|u+v|`` construction), ch. 18 section 2 (direct product), ch. 18
-   section 7 (Construction X).
+   section 7 (Construction X), ch. 18 section 7.1 (Construction Y1; section number
+   from memory).
 .. [2] W. C. Huffman and V. Pless, *Fundamentals of Error-Correcting Codes*,
    Cambridge University Press, 2003, sections 1.5 (puncturing, extending,
    shortening), 2.9 (``(u | u+v)``, direct sum, product).
@@ -56,6 +57,7 @@ __all__ = [
     "juxtapose",
     "append_zeros",
     "construction_x",
+    "construction_y1",
     "product",
     "recipe_of",
     "rebuild",
@@ -439,6 +441,67 @@ def construction_x(code: Code, subcode: Code, auxiliary: Code) -> Code:
     return _result(G, code, step, "construction X", lo, subcode.d_upper)
 
 
+def construction_y1(code: Code, dual_word: Iterable[int] | np.ndarray) -> Code:
+    """Construction Y1: shorten ``code`` on the support of a word of its dual.
+
+    If ``h`` is a word of weight ``w`` of the dual of an ``[n, k, d]`` code, every codeword
+    has even weight on the support ``S`` of ``h``, so the projection onto ``S`` has rank at
+    most ``w - 1`` and the codewords that vanish on ``S`` form an
+    ``[n - w, >= k - w + 1, >= d]`` code (the dimension is exactly ``k - w + 1`` when no
+    other dual word lies inside ``S``, for example when ``h`` has minimum weight). Plain
+    shortening on ``w`` independent coordinates loses one dimension more.
+
+    The recipe step is ``{"op": "construction-y1", "coords": S}``; :func:`rebuild` checks
+    again that ``S`` is the support of a dual word.
+
+    Parameters
+    ----------
+    code : Code
+        The code to shorten.
+    dual_word : array_like of 0/1
+        A nonzero word of length ``n`` of the dual of ``code``, not the all-ones word.
+
+    Returns
+    -------
+    Code
+        The shortened code, ``d_lower`` that of ``code``.
+
+    Raises
+    ------
+    ParameterError
+        If ``dual_word`` has the wrong length, is zero or all ones, or is not in the dual.
+
+    References
+    ----------
+    .. [1] MacWilliams & Sloane (1977), ch. 18 section 7.1 (Construction Y1; the section
+       number from memory).
+
+    >>> from gf2codes.families import extended_hamming
+    >>> C = extended_hamming(4)               # [16, 11, 4]; its dual is RM(1, 4)
+    >>> h = C.dual().rref_generator[-1]       # a dual word of weight 8
+    >>> Y = construction_y1(C, h); (Y.n, Y.k, Y.d_lower)
+    (8, 4, 4)
+    """
+    h = np.asarray(dual_word).astype(np.uint8).reshape(-1)
+    if h.shape[0] != code.n or not np.isin(h, (0, 1)).all():
+        raise ParameterError(
+            f"Argument 'dual_word' must be a 0/1 word of length {code.n}, "
+            f"not one of length {h.shape[0]}."
+        )
+    support = np.flatnonzero(h).tolist()
+    if not 1 <= len(support) < code.n:
+        raise ParameterError(
+            f"Argument 'dual_word' must have weight from 1 to {code.n - 1}, "
+            f"not {len(support)}."
+        )
+    if bool(((code.G.astype(np.int64) @ h.astype(np.int64)) & 1).any()):
+        raise ParameterError("Argument 'dual_word' must be a word of the dual code, and "
+                             "it is not.")
+    short = shorten(code, support)
+    return _result(short.G, code, {"op": "construction-y1", "coords": support},
+                   f"construction Y1 on {len(support)}", code.d_lower, None)
+
+
 def product(a: Code, b: Code) -> Code:
     """The direct (tensor) product: ``[n1 n2, k1 k2, d1 d2]``.
 
@@ -511,6 +574,14 @@ def rebuild(recipe: Sequence[Mapping[str, Any]]) -> Code:
             code = product(code, rebuild(step["other"]))
         elif op == "construction-x":
             code = construction_x(code, rebuild(step["subcode"]), rebuild(step["auxiliary"]))
+        elif op == "construction-y1":
+            cs = list(step.get("coords", []))
+            if not all(isinstance(c, int) and 0 <= c < code.n for c in cs):
+                raise ParseError(f"<recipe>: step {i} (construction-y1) has coordinates "
+                                 f"outside 0..{code.n - 1}.")
+            word = np.zeros(code.n, dtype=np.uint8)
+            word[cs] = 1
+            code = construction_y1(code, word)
         else:
             raise ParseError(f"<recipe>: step {i} has unknown operation {op!r}.")
     return code

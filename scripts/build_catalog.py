@@ -21,10 +21,12 @@ The steps:
    and **cyclic codes of odd lengths 67..127** with redundancy at most 20 (and, up to
    length 85, dimension at most 20), one per class of defining sets under the
    multipliers; their shortenings and puncturings fill the cells below them.
-3. **Derivations**: Plotkin sums ``(u | u+v)`` of the best codes found so far for every
-   length up to 64, Construction X on nested cyclic codes (the tail the shortest code
-   found so far), and juxtapositions ``[G1 | G2]`` of codes of one dimension <= 20, kept
-   where they beat the propagated value.
+3. **Derivations**: Construction Y1 (shortening on the support of a dual word) on the
+   cyclic and BCH codes of length up to 128 and their extensions, Plotkin sums
+   ``(u | u+v)`` of the best codes found so far for every length up to 64,
+   Construction X on nested cyclic codes (the tail the shortest code found so far), and
+   juxtapositions ``[G1 | G2]`` of codes of one dimension <= 20, kept where they beat
+   the propagated value.
 4. **Seeded random codes** (seed 2024, fixed numbers of rounds): double circulant
    ``[2l, l]`` and quasi-cyclic ``[3m, m]``, ``[3m, 2m]`` codes, then ``--qc-rounds``
    (200) quasi-cyclic codes of every index ``p`` and co-index ``m`` with one or two
@@ -39,7 +41,9 @@ The steps:
    the pool's best and the best among the records proved at import.
 6. **Carried search results**: the codes that the growth phase of earlier builds found
    (``scripts/seed_search_records.jsonl``, the search records of the seed at commit
-   d6db148), re-proved, so that a build with a smaller growth budget keeps them.
+   d6db148), re-proved, so that a build with a smaller growth budget keeps them, and
+   the quasi-cyclic codes of ``scripts/search_qc_targets.py`` for the cells with the
+   largest gaps (``scripts/seed_qc_records.jsonl``, seed 2026).
 7. **Growth** (:func:`gf2codes.growth.grow`, the engine of ``gf2codes grow``), seed
    2024: every open cell with ``n <= 32`` with ``--small-steps`` (40) steps each, then
    the first ``--max-cells`` (150) open cells with ``33 <= n <= 64`` that a new catalog
@@ -78,13 +82,16 @@ from gf2codes.catalog.propagation import reach_distance, reach_length  # noqa: E
 from gf2codes.code import Code  # noqa: E402
 from gf2codes.derive import (  # noqa: E402
     construction_x,
+    construction_y1,
+    extend,
     juxtapose,
     plotkin_sum,
     rebuild,
     recipe_of,
+    shorten,
 )
 from gf2codes.distance import minimum_distance  # noqa: E402
-from gf2codes.exceptions import TooExpensiveError  # noqa: E402
+from gf2codes.exceptions import ParameterError, TooExpensiveError  # noqa: E402
 
 N_MAX = 64
 SEED = 2024
@@ -295,6 +302,132 @@ def construction_x_phase(pool: Pool, log) -> None:
     log(f"construction X: {added} cells improved, {len(pool.items)} candidates")
 
 
+#: Dual codes of at most this dimension are enumerated in full by :func:`_dual_words`.
+Y1_FULL_DUAL = 20
+#: The lightest dual words whose supports are joined in pairs by the Y1 phase.
+Y1_PAIR_WORDS = 200
+
+
+class _DualWords:
+    """Words of the dual of a code: every nonzero word when the dual has dimension at most
+    :data:`Y1_FULL_DUAL` (in the order of the reduced echelon basis), else the basis rows,
+    their sums in pairs and the lightest word the engine finds within a small work
+    budget. Deterministic."""
+
+    def __init__(self, code: Code) -> None:
+        H = code.dual().rref_generator.astype(np.uint8)
+        r, n = H.shape
+        self.n = n
+        if r <= Y1_FULL_DUAL:
+            words = np.zeros((1, 2), dtype=np.uint64)
+            packed = np.zeros((r, 2), dtype=np.uint64)
+            for j in range(n):
+                packed[:, j // 64] |= H[:, j].astype(np.uint64) << np.uint64(j % 64)
+            for row in packed:
+                words = np.vstack([words, words ^ row[None, :]])
+            self.packed = words[1:]
+            self.weights = np.bitwise_count(self.packed).sum(axis=1).astype(np.int64)
+            return
+        rows = [H[i] for i in range(r)]
+        rows += [H[i] ^ H[j] for i in range(r) for j in range(i + 1, r)]
+        try:
+            rows.append(minimum_distance(code.dual(), max_work=CHEAP_PROOF_WORK).witness)
+        except TooExpensiveError:
+            pass
+        mat = np.array(rows, dtype=np.uint8)
+        self.packed = np.zeros((mat.shape[0], 2), dtype=np.uint64)
+        for j in range(n):
+            self.packed[:, j // 64] |= mat[:, j].astype(np.uint64) << np.uint64(j % 64)
+        self.weights = mat.sum(axis=1).astype(np.int64)
+
+    def bits(self, index: np.ndarray) -> np.ndarray:
+        """The words ``index`` as 0/1 rows."""
+        cols = np.arange(self.n)
+        return ((self.packed[index][:, cols // 64] >> (cols % 64).astype(np.uint64))
+                & np.uint64(1)).astype(np.uint8)
+
+    def by_weight(self) -> dict[int, np.ndarray]:
+        """One word for each weight (the first of that weight)."""
+        ws, first = np.unique(self.weights, return_index=True)
+        rows = self.bits(first)
+        return {int(w): rows[i] for i, w in enumerate(ws.tolist())}
+
+    def pair_supports(self, limit: int) -> dict[int, list[int]]:
+        """For each size ``s`` found, the union of the supports of two of the ``limit``
+        lightest words (the first pair of that size in their order)."""
+        order = np.argsort(self.weights, kind="stable")[:limit]
+        words = self.bits(order).astype(np.int64)
+        union = self.n - (1 - words) @ (1 - words).T  # |supp a ∪ supp b|
+        found: dict[int, list[int]] = {}
+        iu, ju = np.triu_indices(words.shape[0], 1)
+        sizes = union[iu, ju]
+        ss, first = np.unique(sizes, return_index=True)
+        for size, f in zip(ss.tolist(), first.tolist(), strict=True):
+            found[int(size)] = np.flatnonzero(words[iu[f]] | words[ju[f]]).tolist()
+        return found
+
+
+def construction_y1_phase(pool: Pool, log, slack: int = 0,
+                          kinds: tuple[str, ...] | None = ("cyclic", "bch"),
+                          pairs: bool = True) -> None:
+    """Construction Y1 (:func:`gf2codes.derive.construction_y1`) on the cyclic and BCH
+    codes of the pool of length up to 2 N_MAX and on their extensions: for each weight
+    ``w`` of a word of the dual (:func:`_dual_words`) with ``n - w <= N_MAX``, the
+    ``[n - w, k - w + 1, >= d]`` code is offered where ``d + slack`` beats the pool's
+    best (its proved d may exceed the base's) (MacWilliams & Sloane, ch. 18 section 7.1,
+    from memory). With ``pairs``, the same for the union ``S`` of the supports of two of
+    the :data:`Y1_PAIR_WORDS` lightest dual words: shortening on ``S`` gives
+    ``[n - |S|, >= k - |S| + 2, >= d]`` (two independent dual words inside ``S``), stored
+    as a plain ``shorten`` step."""
+    D, _ = pool.best_table()
+    tried = added = 0
+    bases = []
+    for it in pool.items:
+        recipe = it["recipe"] or []
+        if (len(recipe) == 1 and (kinds is None or recipe[0].get("family") in kinds)
+                and it["code"].n <= 2 * N_MAX and it["code"].k > 1):
+            bases.append((it["code"].with_info(d_lower=it["d"]), it["d"]))
+            if it["d"] % 2 == 1 and it["code"].n < 2 * N_MAX:
+                bases.append((extend(it["code"].with_info(d_lower=it["d"])), it["d"] + 1))
+    for base, d in bases:
+        n, k = base.n, base.k
+        weights = range(max(2, n - N_MAX), min(k, n - 1) + 1)  # n - w <= N_MAX, k' >= 1
+        if n - k < 2 or not any(d + slack > D[n - w, k - w + 1] for w in weights):
+            continue  # no dual word weight could give a better code: skip enumerating
+        duals = _DualWords(base)
+        for w, word in sorted(duals.by_weight().items()):
+            if w not in weights or d + slack <= D[n - w, k - w + 1]:
+                continue
+            m = n - w
+            code = construction_y1(base, word)
+            if d + slack <= D[m, code.k]:
+                continue
+            tried += 1
+            got = pool.offer(code, "derivation", time_limit=5.0)
+            if got is not None and got > D[m, code.k]:
+                D[m, code.k] = got
+                added += 1
+        if not pairs:
+            continue
+        for size, coords in sorted(duals.pair_supports(Y1_PAIR_WORDS).items()):
+            m, kk = n - size, k - size + 2
+            if not 1 <= m <= N_MAX or kk < 1 or d + slack <= D[m, min(kk, m)]:
+                continue
+            try:
+                code = shorten(base, coords)
+            except ParameterError:
+                continue
+            if code.k > m or d + slack <= D[m, code.k]:
+                continue
+            tried += 1
+            got = pool.offer(code, "derivation", time_limit=5.0)
+            if got is not None and got > D[m, code.k]:
+                D[m, code.k] = got
+                added += 1
+    log(f"construction Y1: {len(bases)} base codes, {tried} offered, {added} cells "
+        f"improved, {len(pool.items)} candidates")
+
+
 def circulants(pool: Pool, log, rounds: int) -> None:
     rng = np.random.default_rng(SEED)
     for _ in range(rounds):
@@ -315,6 +448,9 @@ def circulants(pool: Pool, log, rounds: int) -> None:
 #: Codes found by the growth phase of earlier builds (the ``search`` records of the seed
 #: at commit d6db148), offered again as candidates and re-proved like every other one.
 CARRIED = ROOT / "scripts" / "seed_search_records.jsonl"
+#: Quasi-cyclic codes that ``scripts/search_qc_targets.py`` (seed 2026) found for open
+#: cells of 33 <= n <= 64 with the largest gaps, offered and re-proved the same way.
+CARRIED_QC = ROOT / "scripts" / "seed_qc_records.jsonl"
 
 
 def carried(pool: Pool, log, path: Path = CARRIED) -> None:
@@ -334,7 +470,7 @@ def carried(pool: Pool, log, path: Path = CARRIED) -> None:
             item = next(r for r in rec.recipes if r.get("source") == "search")
             pool.offer(rec.code.with_info(recipe=item["recipe"]), "search",
                        seed=item.get("seed"), recipe=item["recipe"])
-    log(f"carried search records: {len(pool.items) - before} candidates")
+    log(f"carried search records ({path.name}): {len(pool.items) - before} candidates")
 
 
 def anticodes(pool: Pool, log) -> None:
@@ -599,8 +735,10 @@ def main(argv: list[str] | None = None) -> int:
     families(pool, log, max_length=N_MAX if args.quick else None)
     if not args.quick:
         carried(pool, log)
+        carried(pool, log, CARRIED_QC)
     anticodes(pool, log)
     long_cyclic(pool, log)
+    construction_y1_phase(pool, log)
     plotkin_sums(pool, log)
     circulants(pool, log, args.circulant_rounds)
     quasi_cyclic_phase(pool, log, args.qc_rounds)

@@ -52,3 +52,40 @@ def test_quick_refuses_to_overwrite_the_shipped_seed():
     proc = subprocess.run([sys.executable, str(SCRIPT), "--quick"], capture_output=True,
                           text=True, timeout=120, cwd=ROOT)
     assert proc.returncode == 2 and "--output" in proc.stderr
+
+
+def _builder():
+    import importlib.util
+
+    spec = importlib.util.spec_from_file_location("build_catalog_under_test", SCRIPT)
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    return module
+
+
+def test_dual_words_of_the_y1_phase():
+    """The dual words the Construction Y1 phase uses lie in the dual, one per weight (all
+    weights of the dual when it is enumerated: [15, 7] BCH, dual weights by brute force
+    here), and shortening on a pair support keeps two more dimensions than its size."""
+    import numpy as np
+
+    from gf2codes import families as F
+    from gf2codes.derive import shorten
+
+    B = _builder()
+    for code in (F.bch(15, 5), F.golay(), F.repetition(30)):  # the last: dual dim 29
+        duals = B._DualWords(code)
+        G = code.G.astype(np.int64)
+        words = duals.by_weight()
+        for w, h in words.items():
+            assert int(h.sum()) == w
+            assert not ((G @ h.astype(np.int64)) & 1).any()
+        if code.n - code.k <= B.Y1_FULL_DUAL:
+            H = code.dual().G.astype(np.int64)
+            every = {int(((np.array(m) @ H) % 2).sum())
+                     for m in np.ndindex(*([2] * H.shape[0]))} - {0}
+            assert set(words) == every
+        for size, coords in duals.pair_supports(50).items():
+            assert len(coords) == size
+            if size < code.n and code.k - size + 2 >= 1:
+                assert shorten(code, coords).k >= code.k - size + 2

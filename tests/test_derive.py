@@ -204,6 +204,60 @@ def test_construction_x_classic():
     assert brute_distance(X.G) == 6
 
 
+@given(small_codes(n_min=4, n_max=11, k_max=7), st.integers(0, 2**32 - 1))
+def test_construction_y1_rule(code, seed):
+    """A dual word of weight w gives [n - w, >= k - w + 1, >= d], and exactly k - w + 1
+    when the word has minimum weight in the dual (M&S ch. 18 section 7.1, from memory);
+    n, k and d checked by brute force here."""
+    assume(code.k < code.n)
+    H = code.dual().rref_generator.astype(np.int64)
+    rng = np.random.default_rng(seed)
+    msg = (rng.random(H.shape[0]) < 0.5).astype(np.int64)
+    assume(msg.any())
+    h = (msg @ H) % 2
+    w = int(h.sum())
+    assume(1 <= w < code.n and code.k - w + 1 >= 1)
+    Y = D.construction_y1(code, h)
+    assert Y.n == code.n - w
+    assert Y.k >= code.k - w + 1
+    assert Y.d_lower == code.d_lower
+    assert brute_distance(Y.G) >= code.d_lower
+    _check(Y)
+    dual_d = brute_distance(code.dual().G)
+    if w == dual_d:
+        assert Y.k == code.k - w + 1
+    again = D.rebuild(Y.recipe)
+    assert again == Y and again.recipe == Y.recipe
+
+
+def test_construction_y1_on_a_bch_code():
+    """BCH [15, 7, 5]: its dual [15, 8] has words of weight 4 (brute force here), and
+    Y1 on one gives [11, 4, >= 5], one dimension more than shortening on 4 coordinates
+    of an information set."""
+    C = _exact(F.bch(15, 5))
+    H = C.dual().G.astype(np.int64)
+    words = [(np.array(m) @ H) % 2 for m in np.ndindex(*([2] * H.shape[0]))]
+    h = min((w for w in words if w.any()), key=lambda w: (int(w.sum()), tuple(w)))
+    assert int(h.sum()) == 4
+    Y = D.construction_y1(C, h)
+    assert (Y.n, Y.k, Y.d_lower) == (11, 4, 5)
+    assert brute_distance(Y.G) >= 5
+    assert Y.recipe[-1] == {"op": "construction-y1",
+                            "coords": np.flatnonzero(h).tolist()}
+
+
+def test_construction_y1_refusals():
+    C = F.hamming(3)
+    with pytest.raises(ParameterError, match="word of the dual"):
+        D.construction_y1(C, [1, 0, 0, 0, 0, 0, 0])
+    with pytest.raises(ParameterError, match="length 7, not one of length 3"):
+        D.construction_y1(C, [1, 1, 0])
+    with pytest.raises(ParameterError, match="weight from 1 to 6, not 0"):
+        D.construction_y1(C, [0] * 7)
+    with pytest.raises(ParseError, match="coordinates outside"):
+        D.rebuild([{"family": "hamming", "m": 3}, {"op": "construction-y1", "coords": [9]}])
+
+
 # ----------------------------------------------------------------- the recipes
 def test_rebuild_round_trips():
     H = F.extended_hamming(4)
