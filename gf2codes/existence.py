@@ -344,6 +344,9 @@ def _decide_columns(n: int, k: int, d: int, max_nodes: int | None, time_limit: f
 #: Limits on the arrays of the compiled search (entries of 8 bytes).
 _MAX_CANDIDATES = 1 << 22
 _MAX_CELLS = 1 << 25
+#: Rows of more bits are refused before 2^r candidates are listed (2^24 words: 128 MiB;
+#: the limit on cells below caps the candidate table itself).
+_MAX_ROW_BITS = 24
 _CHUNK = 4096  # nodes per call of the kernel between clock checks
 
 
@@ -361,7 +364,7 @@ def _decide_compiled(n: int, k: int, d: int, max_nodes: int | None, time_limit: 
     def undecided(why: str, nodes: int) -> ExistenceDecision:
         return ExistenceDecision(n, k, d, "undecided", nodes, time.perf_counter() - start, why)
 
-    if r >= 23:
+    if r > _MAX_ROW_BITS:
         return undecided(f"too large (n - k = {r}: 2^{r} candidate rows)", 0)
     allx = np.arange(1 << r, dtype=np.uint64)
     cands0 = allx[np.bitwise_count(allx) >= d - 1]

@@ -157,8 +157,8 @@ def test_every_shipped_nonexistence_result_is_decided_again():
     facts = _shipped_facts()
     assert facts and len(facts) == len(B.proved_nonexistence())
     for rec in facts:
-        if rec["nodes"] > 200_000:
-            continue  # re-proved in the slow test below
+        if rec["nodes"] > 200_000 or rec["n"] - rec["k"] > 22:
+            continue  # re-proved in the slow test below (many nodes, or millions of rows)
         dec = decide_existence(rec["n"], rec["k"], rec["d"], max_nodes=None,
                                method=rec["method"])
         assert dec.status == "none" and dec.nodes == rec["nodes"], rec
