@@ -307,3 +307,18 @@ def test_popcount_kernel():
     for x in (0, 1, 2**63, 2**64 - 1, 0x5555_5555_5555_5555):
         assert _kernels.popcount64(np.uint64(x)) == bin(x).count("1")
     assert _kernels.ctz64(np.uint64(8)) == 3
+
+
+def test_time_limit_is_read_between_small_tasks(monkeypatch):
+    # Regression: a level of many small tasks, each done in one kernel chunk, never read
+    # the clock and ran to its end past the limit. Here the clock expires as soon as any
+    # codeword has been counted, so the enumeration must stop after the chunk that
+    # counted it (no wall-clock assertion: the count of codewords decides).
+    from gf2codes.distance._result import CHUNK, ProofClock
+
+    monkeypatch.setattr(ProofClock, "expired", lambda self: self.done > 0)
+    rng = np.random.default_rng(12)
+    G = np.hstack([np.eye(60, dtype=np.uint8), rng.integers(0, 2, (60, 140))])
+    r = minimum_distance(Code(G), time_limit=0.4, workers=1)
+    assert not r.exact and r.method == "brouwer-zimmermann"
+    assert r.codewords <= 2 * CHUNK  # before the fix: a whole level, 1.4e9 here
