@@ -538,9 +538,9 @@ def run_task(task: Task, m: InfoSetMatrix, sh: Shared, stop_at: int, lower: int)
     combo = np.zeros(max(task.w1, 1), dtype=np.int64)
     state = np.arange(max(task.w1, 1), dtype=np.int64)
     while True:
-        # The clock is read before every chunk, not only after an unfinished one: a level
-        # of thousands of small tasks, each done in one chunk, would otherwise run to its
-        # end past the time limit (9.8 s under --time-limit 0.3 for a [200,60] code).
+        # The clock is read before every chunk, the first included: a level of thousands
+        # of small tasks, each done in one chunk, would otherwise run to its end past the
+        # time limit (9.8 s under --time-limit 0.3 for a [200,60] code).
         if sh.stop:
             return False
         if sh.clock.expired():
@@ -578,9 +578,6 @@ def run_task(task: Task, m: InfoSetMatrix, sh: Shared, stop_at: int, lower: int)
                 return False
         if finished:
             return True
-        if sh.clock.expired():
-            sh.stop = True
-            return False
 
 
 def _base_only(m: InfoSetMatrix, sh: Shared, stop_at: int, lower: int) -> bool:
