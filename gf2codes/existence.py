@@ -91,10 +91,12 @@ DEFAULT_NODE_BUDGET = 2_000_000
 #: The answer of a decision (:data:`gf2codes.typing.ExistenceStatus`).
 Status = ExistenceStatus
 
-#: The two search methods: ``"rows"`` (generator rows, this module) and ``"columns"``
-#: (parity-check columns, :mod:`gf2codes._columns`); ``"auto"`` picks one per cell.
-Method = Literal["auto", "rows", "columns"]
-METHODS = ("auto", "rows", "columns")
+#: The search methods: ``"rows"`` (generator rows, this module), ``"columns"``
+#: (parity-check columns, :mod:`gf2codes._columns`) and ``"residual"`` (classified
+#: residual codes extended by one weight-``w`` word, :mod:`gf2codes._residual`);
+#: ``"auto"`` picks rows or columns per cell (the residual method is asked for by name).
+Method = Literal["auto", "rows", "columns", "residual"]
+METHODS = ("auto", "rows", "columns", "residual")
 
 #: ``progress(nodes, info)``: called about five times a second during a long decision,
 #: with ``info["note"]`` a one-line status.
@@ -173,7 +175,8 @@ class ExistenceDecision:
         1,234 nodes (+ 56 for the hyperplane cap)"``."""
         if self.method == "trivial":
             return "trivial bound, no search"
-        label = {"rows": "generator rows", "columns": "parity-check columns"}.get(
+        label = {"rows": "generator rows", "columns": "parity-check columns",
+                 "residual": "classified residual codes"}.get(
             self.method, self.method)
         extra = f" (+ {self.lemma_nodes:,} for the hyperplane cap)" if self.lemma_nodes else ""
         return f"exhaustive search, {label}, {self.nodes:,} nodes{extra}"
@@ -201,9 +204,11 @@ def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_
     compiled : bool
         Run the compiled kernel (default) or its plain-Python twin (for the tests; the
         same search, node for node).
-    method : {"auto", "rows", "columns"}
+    method : {"auto", "rows", "columns", "residual"}
         ``"rows"``: generator rows (this module); ``"columns"``: parity-check columns
-        (:mod:`gf2codes._columns`, an independent method); ``"auto"``: the one
+        (:mod:`gf2codes._columns`, an independent method); ``"residual"``: classified
+        residual codes extended by a minimum-weight word (:mod:`gf2codes._residual`,
+        a third independent method, strongest at low rates); ``"auto"``: the one
         :func:`choose_method` estimates cheaper for the cell (``"rows"`` when
         ``max_work`` is given).
     max_work : int or None
@@ -247,7 +252,7 @@ def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_
         max_nodes = check_int("max_nodes", max_nodes, minimum=1)
     if max_work is not None:
         max_work = check_int("max_work", max_work, minimum=1)
-        if not compiled or method == "columns":
+        if not compiled or method in ("columns", "residual"):
             raise ParameterError("Argument 'max_work' needs the compiled row search.")
     if time_limit is not None and (isinstance(time_limit, bool)
                                    or not isinstance(time_limit, (int, float))
@@ -275,6 +280,8 @@ def decide_existence(n: int, k: int, d: int, *, max_nodes: int | None = DEFAULT_
         chosen = "rows" if max_work is not None else choose_method(n, k, d)
     else:
         chosen = method
+    if chosen == "residual":
+        return _decide_residual(n, k, d, max_nodes, time_limit, progress, compiled, start)
     if chosen == "columns":
         return _decide_columns(n, k, d, max_nodes, time_limit, progress, compiled, start)
     if compiled:
@@ -339,6 +346,35 @@ def _decide_columns(n: int, k: int, d: int, max_nodes: int | None, time_limit: f
         "none" if out.status == "none" else "undecided")
     return ExistenceDecision(n, k, d, status, out.nodes, time.perf_counter() - start,
                              out.stopped, witness, "columns", out.lemma_nodes)
+
+
+def _decide_residual(n: int, k: int, d: int, max_nodes: int | None,
+                     time_limit: float | None, progress: Progress | None, compiled: bool,
+                     start: float) -> ExistenceDecision:
+    """:class:`gf2codes._residual.ResidualSearch`, its answer as an :class:`ExistenceDecision`.
+
+    The nodes are the vectors placed by every extension search, at every level of the
+    classification of the residual codes (all of it is part of the proof).
+    """
+    from ._residual import ResidualSearch, Stop, systematic_rows
+
+    deadline = None if time_limit is None else time.monotonic() + time_limit - (
+        time.perf_counter() - start)
+    search = ResidualSearch(max_nodes=max_nodes, deadline=deadline, progress=progress,
+                            compiled=compiled)
+    try:
+        rows = search.find(n, k, d)
+    except Stop as stop:
+        return ExistenceDecision(n, k, d, "undecided", search.nodes,
+                                 time.perf_counter() - start, str(stop), None, "residual")
+    except KeyboardInterrupt:
+        return ExistenceDecision(n, k, d, "undecided", search.nodes,
+                                 time.perf_counter() - start, "interrupted", None, "residual")
+    if rows is None:
+        return ExistenceDecision(n, k, d, "none", search.nodes, time.perf_counter() - start,
+                                 "finished", None, "residual")
+    return ExistenceDecision(n, k, d, "exists", search.nodes, time.perf_counter() - start,
+                             "finished", systematic_rows(rows, n), "residual")
 
 
 #: Limits on the arrays of the compiled search (entries of 8 bytes).

@@ -46,9 +46,11 @@ def register(subparsers) -> None:
                         f"(default {_NODES:,})")
     p.add_argument("--time-limit", metavar="SECONDS", default=None,
                    help="time limit of the exhaustive search with --n --k --d (default 60)")
-    p.add_argument("--method", choices=("auto", "rows", "columns"), default="auto",
+    p.add_argument("--method", choices=("auto", "rows", "columns", "residual"),
+                   default="auto",
                    help="exhaustive search with --n --k --d: generator rows, parity-check "
-                        "columns, or the one estimated cheaper (default auto)")
+                        "columns, classified residual codes (best at low rates), or rows/"
+                        "columns, whichever is estimated cheaper (default auto)")
     p.add_argument("--table", action="store_true",
                    help="for every k and d in the ranges: the least length the bounds allow "
                         "and the length at which a code is guaranteed to exist")
