@@ -257,7 +257,7 @@ def _extend_python(low: list[int], high: list[int], m: int, s: int,
     return out
 
 
-def _build(residual: tuple[int, ...], n_res: int, w: int, xs: tuple[int, ...]) -> tuple[int, ...]:
+def _build(residual: tuple[int, ...], w: int, xs: tuple[int, ...]) -> tuple[int, ...]:
     """Rows of ``C`` (bit ``j`` = coordinate ``j``): ``c`` on coordinates ``0..w-1``, then
     row ``i`` of ``X | R``; ``X``'s columns are ``0, xs[0], xs[1], ...``."""
     cols = (0,) + tuple(xs)
@@ -296,7 +296,7 @@ def extensions(residual: tuple[int, ...], n_res: int, w: int, *, compiled: bool 
             sols = sols[:1]
     else:
         sols = _extend_compiled(low, high, m, s, first_only, tick)
-    return [_build(residual, n_res, w, xs) for xs in sols]
+    return [_build(residual, w, xs) for xs in sols]
 
 
 def _extend_compiled(low: list[int], high: list[int], m: int, s: int, first_only: bool,

@@ -19,6 +19,18 @@ from ._jit import kernel
 __all__ = ["extension_dfs"]
 
 
+@kernel("int64(int64)", inline="always")
+def odd(v):  # pragma: no cover - compiled
+    """1 if the word ``v`` (at most 64 bits) has an odd number of set bits, else 0."""
+    v ^= v >> 32
+    v ^= v >> 16
+    v ^= v >> 8
+    v ^= v >> 4
+    v ^= v >> 2
+    v ^= v >> 1
+    return v & 1
+
+
 @kernel("int64(int64[::1], int64[::1], int64[::1], int64[::1], int64[::1], int64[:, ::1], "
         "int64[::1], int64, int64, int64, int64)", nogil=True)
 def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
@@ -53,14 +65,7 @@ def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
                 return 2
             x = chosen[depth]
             for u in range(1, size):
-                v = u & x
-                v ^= v >> 32
-                v ^= v >> 16
-                v ^= v >> 8
-                v ^= v >> 4
-                v ^= v >> 2
-                v ^= v >> 1
-                if v & 1:
+                if odd(u & x):
                     count[u] -= 1
             if first_only:
                 state[0] = depth
@@ -72,27 +77,13 @@ def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
         while x < size:
             ok = True
             for u in range(1, size):
-                v = u & x
-                v ^= v >> 32
-                v ^= v >> 16
-                v ^= v >> 8
-                v ^= v >> 4
-                v ^= v >> 2
-                v ^= v >> 1
-                c = count[u] + (v & 1)
+                c = count[u] + odd(u & x)
                 if c > high[u] or c + left < low[u]:
                     ok = False
                     break
             if ok:
                 for u in range(1, size):
-                    v = u & x
-                    v ^= v >> 32
-                    v ^= v >> 16
-                    v ^= v >> 8
-                    v ^= v >> 4
-                    v ^= v >> 2
-                    v ^= v >> 1
-                    if v & 1:
+                    if odd(u & x):
                         count[u] += 1
                 chosen[depth] = x
                 nxt[depth] = x + 1
@@ -113,12 +104,5 @@ def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
             return 2
         x = chosen[depth]
         for u in range(1, size):
-            v = u & x
-            v ^= v >> 32
-            v ^= v >> 16
-            v ^= v >> 8
-            v ^= v >> 4
-            v ^= v >> 2
-            v ^= v >> 1
-            if v & 1:
+            if odd(u & x):
                 count[u] -= 1
