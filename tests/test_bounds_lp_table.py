@@ -40,14 +40,18 @@ def _solve_fresh(monkeypatch, tmp_path, cells):
 
 
 def _table_without_lp(monkeypatch, tmp_path) -> list[list[int]]:
-    real = T.LP_BOUNDS_FILE
+    # without the LP values and without the facts of the LP with residual exclusions
+    # (tests/test_bounds_lp_residual.py), which are LP certificates too
+    real, real_res = T.LP_BOUNDS_FILE, T.LP_RESIDUAL_FILE
     monkeypatch.setattr(T, "LP_BOUNDS_FILE", tmp_path / "absent.jsonl")
+    monkeypatch.setattr(T, "LP_RESIDUAL_FILE", tmp_path / "absent-residual.jsonl")
     clear_caches()
     try:
-        assert T.shipped_lp_bounds() == ()
+        assert T.shipped_lp_bounds() == () and T.shipped_lp_residual() == ()
         return [row[:] for row in T._fixed_table()[0]]
     finally:
         monkeypatch.setattr(T, "LP_BOUNDS_FILE", real)
+        monkeypatch.setattr(T, "LP_RESIDUAL_FILE", real_res)
         clear_caches()
 
 

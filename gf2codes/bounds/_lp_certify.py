@@ -92,7 +92,8 @@ def _to_fixed(values: list[Fraction], bits: int) -> tuple[list[int], int]:
 
 
 def solve_refined(n: int, d: int, K: tuple[tuple[int, ...], ...],
-                  stop_below: int | None = None) -> Certificate | None:
+                  stop_below: int | None = None,
+                  excluded: frozenset[int] = frozenset()) -> Certificate | None:
     """Solve the even-code LP at ``(n, d)`` by scaled iterative refinement; certify.
 
     Parameters
@@ -103,6 +104,10 @@ def solve_refined(n: int, d: int, K: tuple[tuple[int, ...], ...],
         ``K[j][i] = K_j(i)`` for ``j <= n/2`` and even ``i`` (exact integers).
     stop_below : int, optional
         Stop as soon as the certified size is below this (the caller only needs that).
+    excluded : frozenset of int, optional
+        Weights known to be absent from the code (their rows are dropped: ``A_i = 0``
+        there, so the certificate needs no inequality at ``i``). The caller must have
+        proved the absence; :func:`gf2codes.bounds.lp.residual_exclusions` does.
 
     Returns
     -------
@@ -112,7 +117,7 @@ def solve_refined(n: int, d: int, K: tuple[tuple[int, ...], ...],
     import numpy as np
     from scipy.optimize import linprog  # type: ignore[import-untyped]  # no stubs installed
 
-    W = list(range(d + (d % 2), n + 1, 2))
+    W = [i for i in range(d + (d % 2), n + 1, 2) if i not in excluded]
     P = list(range(1, n // 2 + 1))
     if not W or not P:
         return None

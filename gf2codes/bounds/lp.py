@@ -24,6 +24,8 @@ References
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
+from dataclasses import dataclass
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
@@ -34,7 +36,8 @@ from .formulas import floor_log2, kmax_griesmer, kmax_hamming, kmax_singleton, s
 if TYPE_CHECKING:
     import numpy as np
 
-__all__ = ["krawtchouk_table", "kmax_lp", "lp_value"]
+__all__ = ["krawtchouk_table", "kmax_lp", "lp_value", "ResidualLP", "residual_exclusions",
+           "lp_residual_rules_out"]
 
 
 @memo(8)
@@ -251,3 +254,78 @@ def lp_value(n: int, k: int) -> int:
     not wander into lengths/rates where the float LP cannot be certified.
     """
     return min(search_d(kmax_lp, n, k, n - k + 1), n - k + 1)
+
+
+def residual_exclusions(N: int, k: int, D: int, bound: Callable[[int, int], int]
+                        ) -> frozenset[int]:
+    """Weights an even ``[N, k, >= D]`` code (``D`` even) cannot contain.
+
+    For a codeword ``c`` of weight ``w`` with ``D <= w <= 2D - 2`` and any codeword
+    ``x`` outside ``{0, c}``, ``wt(x) + wt(x + c) = w + 2 wt(x outside c) >= 2D``, so the
+    restriction to the ``N - w`` coordinates outside ``c`` has kernel ``{0, c}`` and
+    gives an ``[N - w, k - 1, >= D - w/2]`` code (the residual code; Huffman & Pless
+    2003, Thm 2.7.1, there for ``w = d``; the same two lines prove it for every ``w`` in
+    the range). So if ``bound(N - w, k - 1)``, a proved upper bound on the distance of
+    every ``[N - w, k - 1]`` code, is below ``D - w/2`` (or ``N - w < k - 1``), no
+    codeword has weight ``w``.
+    """
+    out = set()
+    if k < 2:
+        return frozenset()
+    for w in range(D, min(2 * D - 2, N) + 1, 2):
+        m = N - w
+        if m < k - 1 or bound(m, k - 1) < D - w // 2:
+            out.add(w)
+    return frozenset(out)
+
+
+@dataclass(frozen=True)
+class ResidualLP:
+    """A proof that no binary linear ``[n, k, d]`` code exists.
+
+    The even-code Delsarte LP at length ``N`` and distance ``D`` (``N, D = n, d`` for
+    even ``d``, ``n + 1, d + 1`` for odd ``d``: add a parity bit) with the weights
+    ``excluded`` forced to zero (:func:`residual_exclusions`) has a certificate, checked in
+    exact integers, of ``|C| <= size < 2^k``.
+    """
+
+    n: int
+    k: int
+    d: int
+    N: int
+    D: int
+    excluded: tuple[int, ...]
+    size: int
+
+
+def lp_residual_rules_out(n: int, k: int, d: int, bound: Callable[[int, int], int]
+                          ) -> ResidualLP | None:
+    """Try to prove "no binary linear ``[n, k, d]`` code" by the Delsarte LP with the
+    weights the residual codes rule out forced to zero.
+
+    ``bound(m, j)`` must be a proved upper bound on the distance of every ``[m, j]``
+    code for ``j = k - 1`` (the shipped bound table). Combining Delsarte's inequalities
+    with weights known to be absent is common practice in the construction of code
+    tables; each excluded weight here is a theorem (:func:`residual_exclusions`), and the
+    LP certificate is checked exactly (:func:`gf2codes.bounds._lp_certify.certify_exact`),
+    so a returned proof never rests on floating point. Returns ``None`` when nothing is
+    proved (the LP allows ``2^k`` words, or HiGHS gave no certificate).
+    """
+    if not (1 <= k <= n and 1 <= d <= n):
+        return None
+    N, D = (n, d) if d % 2 == 0 else (n + 1, d + 1)
+    if D <= 2:
+        return None
+    excluded = residual_exclusions(N, k, D, bound)
+    if not any(w not in excluded for w in range(D, N + 1, 2)):
+        size = 1  # only the zero word is left
+    else:
+        from ._lp_certify import solve_refined
+
+        cert = solve_refined(N, D, krawtchouk_table(N), stop_below=1 << k, excluded=excluded)
+        if cert is None:
+            return None
+        size = cert.size
+    if size >= 1 << k:
+        return None
+    return ResidualLP(n, k, d, N, D, tuple(sorted(excluded)), size)

@@ -4,7 +4,9 @@
 Plotkin, Griesmer) over a table of all smaller parameters with the neighbour relations
 that puncturing, shortening, taking subcodes, adding a parity bit and the residual code
 give, with the shipped exhaustive non-existence results (:data:`NONEXISTENCE_FILE`) and
-with the shipped certified Delsarte LP values (:data:`LP_BOUNDS_FILE`, [3]_, [4]_); then
+with the shipped certified Delsarte LP values (:data:`LP_BOUNDS_FILE`, [3]_, [4]_) and
+with the shipped non-existence facts the LP proves once the weights that residual codes
+rule out are forced to zero (:data:`LP_RESIDUAL_FILE`); then
 takes the minimum with the other bounds *at the queried point only*. Each row of the
 table depends only on smaller lengths and on the bounds one length further, so a value
 does not depend on what was asked before.
@@ -37,9 +39,9 @@ from .results import DimensionBound, LengthBound, UpperBound
 from .upper import cheap_profiles, individual
 
 __all__ = [
-    "TABLE_LENGTH", "NONEXISTENCE_FILE", "LP_BOUNDS_FILE", "proved_nonexistence",
-    "shipped_lp_bounds", "bound_chain", "best_upper", "least_length", "max_dimension",
-    "reset_tables",
+    "TABLE_LENGTH", "NONEXISTENCE_FILE", "LP_BOUNDS_FILE", "LP_RESIDUAL_FILE",
+    "proved_nonexistence", "shipped_lp_bounds", "shipped_lp_residual", "bound_chain",
+    "best_upper", "least_length", "max_dimension", "reset_tables",
 ]
 
 #: The shipped exhaustive non-existence results (written by
@@ -49,6 +51,10 @@ NONEXISTENCE_FILE = Path(__file__).resolve().parent.parent / "_nonexistence.json
 #: The shipped certified Delsarte LP values (written by ``scripts/build_lp_bounds.py``;
 #: installed with the package): only the cells where the LP beats the cheap bounds.
 LP_BOUNDS_FILE = Path(__file__).resolve().parent.parent / "_lp_bounds.jsonl"
+
+#: The shipped non-existence facts of the LP with residual exclusions (written by
+#: ``scripts/build_lp_residual.py``; installed with the package).
+LP_RESIDUAL_FILE = Path(__file__).resolve().parent.parent / "_lp_residual.jsonl"
 
 #: Lengths covered by the fixed-point table (rows beyond are extended one at a time).
 TABLE_LENGTH = 128
@@ -125,6 +131,60 @@ def shipped_lp_bounds() -> tuple[tuple[int, int, int], ...]:
     raise AssertionError("unreachable: a record failed but no line did")  # pragma: no cover
 
 
+@memo(1)
+def shipped_lp_residual() -> tuple[tuple[int, int, int, tuple[int, ...], int], ...]:
+    """The shipped facts of the LP with residual exclusions ``(n, k, d, excluded, size)``.
+
+    Each says "no binary linear ``[n, k, d]`` code exists": the even-code Delsarte LP,
+    with the weights ``excluded`` forced to zero because the table rules out their
+    residual codes, has an exactly checked certificate ``|C| <= size < 2^k``
+    (:func:`gf2codes.bounds.lp.lp_residual_rules_out`). A fact at dimension ``k`` reads
+    the table only at dimension ``k - 1``, and a fact lowers values only at dimensions
+    ``>= k`` (every rule of :func:`_compute_fixed_table` bounds a cell by cells of
+    smaller or equal dimension), so the facts rest on each other without a cycle. The
+    file :data:`LP_RESIDUAL_FILE` (``gf2codes/_lp_residual.jsonl``) is written by
+    ``scripts/build_lp_residual.py``; the tests prove every line again from the table.
+
+    Raises
+    ------
+    ParseError
+        A line that is not such a record (the file and line are named).
+    """
+    import json
+
+    if not LP_RESIDUAL_FILE.exists():
+        return ()
+    out = []
+    for no, line in enumerate(LP_RESIDUAL_FILE.read_text().splitlines(), start=1):
+        if not line.strip():
+            continue
+        try:
+            rec = json.loads(line)
+        except ValueError:
+            rec = None
+        fact = _residual_fact(rec)
+        if fact is None:
+            raise ParseError(f"{LP_RESIDUAL_FILE}, line {no}: not an LP fact "
+                             '{"n": N, "k": K, "d": D, "excluded": [W, ...], "size": S} '
+                             "with 1 <= K, D <= N and 1 <= S < 2^K.")
+        out.append(fact)
+    return tuple(out)
+
+
+def _residual_fact(rec: object) -> tuple[int, int, int, tuple[int, ...], int] | None:
+    """``(n, k, d, excluded, size)`` of one LP-residual record, or None when not one."""
+    if not isinstance(rec, dict) or set(rec) != {"n", "k", "d", "excluded", "size"}:
+        return None
+    n, k, d, ex, size = (rec[key] for key in ("n", "k", "d", "excluded", "size"))
+    if not all(type(v) is int for v in (n, k, d, size)) or not isinstance(ex, list):
+        return None
+    if not all(type(w) is int for w in ex):
+        return None
+    if not (1 <= k <= n and 1 <= d <= n and 1 <= size < 1 << k):
+        return None
+    return n, k, d, tuple(ex), size
+
+
 def _lp_cell(rec: object) -> tuple[int, int, int] | None:
     """``(n, k, d)`` of one LP record, or None when it is not one."""
     if not isinstance(rec, dict) or set(rec) != {"n", "k", "d"}:
@@ -142,6 +202,9 @@ def _describe(n: int, k: int, value: int, why: _Why) -> str:
             return f"exhaustive search: no [{n},{k},{value + 1}] code ({extra:,} nodes)"
         if rule == "lp":
             return "lp (certified Delsarte LP)"
+        if rule == "lp-residual":
+            return (f"lp-residual: no [{n},{k},{value + 1}] code (certified Delsarte LP, "
+                    "weights that residual codes rule out set to zero)")
         return rule
     cell = f"[{src[0]},{src[1]}]"
     if rule == "residual":
@@ -196,8 +259,10 @@ def _compute_fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
     """The fixed point of the propagation rules over ``n <= TABLE_LENGTH + 1``.
 
     Start: for every cell the least of the cheap formula bounds, the shipped
-    exhaustive non-existence results (:func:`proved_nonexistence`) and the shipped
-    certified LP values (:func:`shipped_lp_bounds`, rule ``lp``). Then apply, in sweeps
+    exhaustive non-existence results (:func:`proved_nonexistence`), the shipped
+    certified LP values (:func:`shipped_lp_bounds`, rule ``lp``) and the shipped facts of
+    the LP with residual exclusions (:func:`shipped_lp_residual`, rule ``lp-residual``).
+    Then apply, in sweeps
     until nothing changes (each rule is a theorem about ``D(n, k)``, the largest distance
     of an ``[n, k]`` code; a value only ever decreases, so the sweeps terminate):
 
@@ -242,6 +307,10 @@ def _compute_fixed_table() -> tuple[list[list[int]], list[list[_Why]]]:
         if n <= T and k <= n and d - 1 < val[n][k]:
             val[n][k] = d - 1
             why[n][k] = ("exhaustive", None, nodes)
+    for n, k, d, _, _ in shipped_lp_residual():
+        if n <= T and d - 1 < val[n][k]:
+            val[n][k] = d - 1
+            why[n][k] = ("lp-residual", None, 0)
     changed = True
     while changed:
         changed = False
@@ -336,15 +405,16 @@ def _base(n: int, k: int) -> tuple[int, str]:
 
 def _inputs_digest() -> str:
     """A digest of everything the table is computed from: the source of the bounds
-    package, the shipped non-existence facts and the shipped LP values. A changed rule or
-    fact is a new digest, so remembered rows are never reused for a different table."""
+    package, the shipped non-existence facts, LP values and LP-residual facts. A changed
+    rule or fact is a new digest, so remembered rows are never reused for a different
+    table."""
     import hashlib
 
     h = hashlib.sha256()
     for path in sorted(Path(__file__).resolve().parent.glob("*.py")):
         h.update(path.name.encode())
         h.update(path.read_bytes())
-    for path in (NONEXISTENCE_FILE, LP_BOUNDS_FILE):
+    for path in (NONEXISTENCE_FILE, LP_BOUNDS_FILE, LP_RESIDUAL_FILE):
         h.update(path.name.encode())
         if path.exists():
             h.update(path.read_bytes())
