@@ -13,6 +13,8 @@ schedule and the target test, and proves the winner's distance exactly.
 ``anneal``        simulated annealing on the redundancy matrix of ``[I | A]``
 ``circulant``     double-circulant and quasi-cyclic codes, hill-climbed
 ``cyclic``        cyclic and shortened cyclic codes
+``orbits``        unions of orbits of a matrix group chosen by an integer program
+                  (Braun, Kohnert & Wassermann 2005)
 ``random``        random systematic generator matrices
 ================  =============================================================
 
@@ -46,6 +48,7 @@ from ._driver import MODES, OnWinner, Progress, SearchResult, WinnerInfo, check_
 from ._families import FamilyDerivation
 from ._greedy import ColumnGreedy
 from ._lexicode import Lexicode
+from ._orbits import OrbitProgram
 from ._random import RandomSystematic
 
 __all__ = [
@@ -69,7 +72,7 @@ __all__ = [
 STRATEGIES: dict[str, Strategy] = {
     s.name: s
     for s in (FamilyDerivation(), Lexicode(), ColumnGreedy(), Annealing(), Circulant(),
-              Cyclic(), RandomSystematic())
+              Cyclic(), OrbitProgram(), RandomSystematic())
 }
 
 
