@@ -43,7 +43,9 @@ The steps:
    (``scripts/seed_search_records.jsonl``, the search records of the seed at commit
    d6db148), re-proved, so that a build with a smaller growth budget keeps them, and
    the quasi-cyclic codes of ``scripts/search_qc_targets.py`` for the cells with the
-   largest gaps (``scripts/seed_qc_records.jsonl``, seed 2026).
+   largest gaps (``scripts/seed_qc_records.jsonl``, seed 2026) and the codes with
+   prescribed automorphism groups of ``scripts/search_orbit_targets.py`` for the open
+   cells with ``k <= 14`` (``scripts/seed_orbit_records.jsonl``, seed 2027).
 7. **Growth** (:func:`gf2codes.growth.grow`, the engine of ``gf2codes grow``), seed
    2024: every open cell with ``n <= 32`` with ``--small-steps`` (40) steps each, then
    the first ``--max-cells`` (150) open cells with ``33 <= n <= 64`` that a new catalog
@@ -451,6 +453,9 @@ CARRIED = ROOT / "scripts" / "seed_search_records.jsonl"
 #: Quasi-cyclic codes that ``scripts/search_qc_targets.py`` (seed 2026) found for open
 #: cells of 33 <= n <= 64 with the largest gaps, offered and re-proved the same way.
 CARRIED_QC = ROOT / "scripts" / "seed_qc_records.jsonl"
+#: Codes with prescribed automorphism groups that ``scripts/search_orbit_targets.py``
+#: (seed 2027) found for open cells with k <= 14, offered and re-proved the same way.
+CARRIED_ORBITS = ROOT / "scripts" / "seed_orbit_records.jsonl"
 
 
 def carried(pool: Pool, log, path: Path = CARRIED) -> None:
@@ -736,6 +741,7 @@ def main(argv: list[str] | None = None) -> int:
     if not args.quick:
         carried(pool, log)
         carried(pool, log, CARRIED_QC)
+        carried(pool, log, CARRIED_ORBITS)
     anticodes(pool, log)
     long_cyclic(pool, log)
     construction_y1_phase(pool, log)
