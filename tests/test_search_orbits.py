@@ -120,3 +120,27 @@ def test_the_same_seed_gives_the_same_candidates():
 def test_no_candidates_beyond_the_dimension_limit():
     it = S.STRATEGIES["orbits"].candidates(40, 15, 8, np.random.default_rng(0))
     assert list(it) == []
+
+
+def test_search_json_on_stdout_is_clean_at_the_descriptor_level(capfd):
+    # HiGHS may print from C++ straight to descriptor 1; the program is run with it
+    # silenced, so --json stays one parseable object
+    import json
+
+    from gf2codes.cli import main
+
+    assert main(["search", "--k", "7", "--d", "16", "--strategy", "orbits", "--json",
+                 "--max-steps", "40", "--no-catalog", "--seed", "1"]) == 0
+    rec = json.loads(capfd.readouterr().out)  # the whole of descriptor 1 is the object
+    assert rec["k"] == 7 and rec["d"] >= 16
+
+
+def test_the_silencer_restores_the_descriptor(capfd):
+    import os
+
+    from gf2codes.search._orbits import _native_stdout_silenced
+
+    with _native_stdout_silenced():
+        os.write(1, b"hidden\n")
+    os.write(1, b"shown\n")
+    assert capfd.readouterr().out == "shown\n"

@@ -34,7 +34,10 @@ References
 
 from __future__ import annotations
 
+import contextlib
 import math
+import os
+import sys
 from collections.abc import Iterator
 from dataclasses import dataclass
 
@@ -72,11 +75,11 @@ def random_invertible(k: int, rng: np.random.Generator) -> list[int]:
 
 
 def _images(cols: list[int], k: int) -> np.ndarray:
-    """``img[x] = g x`` for every ``x`` in ``F_2^k`` (by linearity, one XOR each)."""
+    """``img[x] = g x`` for every ``x`` in ``F_2^k`` (by linearity: the vectors with top
+    bit ``i`` are those below ``2^i`` plus ``e_i``)."""
     img = np.zeros(1 << k, dtype=np.int64)
-    for x in range(1, 1 << k):
-        low = x & -x
-        img[x] = img[x ^ low] ^ cols[low.bit_length() - 1]
+    for i in range(k):
+        img[1 << i: 2 << i] = img[: 1 << i] ^ cols[i]
     return img
 
 
@@ -161,6 +164,26 @@ def orbit_system(k: int, cols: list[int], rng: np.random.Generator | None = None
     return OrbitSystem(k, tuple(tuple(o) for o in orbits), A, j, order // j)
 
 
+@contextlib.contextmanager
+def _native_stdout_silenced() -> Iterator[None]:
+    """Send file descriptor 1 to the null device for the duration (some HiGHS builds
+    print a debugging line from C++ whatever the display option, which would corrupt a
+    ``--json`` output on stdout). Python's own ``sys.stdout`` is flushed first."""
+    sys.stdout.flush()
+    try:
+        saved = os.dup(1)
+    except OSError:  # pragma: no cover - no descriptor 1 (an embedded interpreter)
+        yield
+        return
+    try:
+        with open(os.devnull, "w") as null:
+            os.dup2(null.fileno(), 1)
+        yield
+    finally:
+        os.dup2(saved, 1)
+        os.close(saved)
+
+
 def solve_orbit_system(system: OrbitSystem, n: int, D: int,
                        node_limit: int = NODE_LIMIT) -> list[int] | None:
     """Multiplicities ``x_O`` of a length-``n`` union of orbits meeting every message
@@ -171,11 +194,12 @@ def solve_orbit_system(system: OrbitSystem, n: int, D: int,
     P = (1 << system.k) - 1
     cap = max(1, -(-2 * n // P))
     m = len(system.orbits)
-    res = milp(c=np.zeros(m),
-               constraints=[LinearConstraint(system.A, D, np.inf),
-                            LinearConstraint(system.sizes[None, :], n, n)],
-               integrality=np.ones(m), bounds=Bounds(0, cap),
-               options={"node_limit": node_limit, "presolve": True})
+    with _native_stdout_silenced():
+        res = milp(c=np.zeros(m),
+                   constraints=[LinearConstraint(system.A, D, np.inf),
+                                LinearConstraint(system.sizes[None, :], n, n)],
+                   integrality=np.ones(m), bounds=Bounds(0, cap),
+                   options={"node_limit": node_limit, "presolve": True})
     if res.x is None or res.status != 0:
         return None
     return [int(v) for v in np.round(res.x)]
