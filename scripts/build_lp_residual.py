@@ -22,8 +22,12 @@ build starts from an empty file, so it is reproducible (HiGHS is deterministic).
 The on-disk memos are switched off (``GF2CODES_CACHE_DIR=off``), so every certificate
 is solved by this run.
 
-    python scripts/build_lp_residual.py              # --n-max 64
-    python scripts/build_lp_residual.py --n-max 96
+    python scripts/build_lp_residual.py              # --n-max 129, the table's rows
+    python scripts/build_lp_residual.py --n-max 64   # 56 facts in about 35 s
+
+Measured on the 2-core AVX2 development machine: ``--n-max 129`` proved 215 facts in
+the first round, 8 in the second and none in the third, 223 in all, in 555 s (load
+about 2: another job on the other core); ``--n-max 64`` 56 facts in 32 s (load 0.3).
 
 A test of the consistency of the build: a cell where the catalog has a proved code of
 distance ``d`` must never be ruled out at ``d``; the script stops with an error if that
@@ -114,7 +118,7 @@ def build(n_max: int, check_catalog: bool) -> dict[tuple[int, int], dict[str, ob
 
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    ap.add_argument("--n-max", type=int, default=64,
+    ap.add_argument("--n-max", type=int, default=T.TABLE_LENGTH + 1,
                     help="largest length tested (default %(default)s; at most "
                          f"{T.TABLE_LENGTH + 1})")
     ap.add_argument("--no-check-catalog", dest="check_catalog", action="store_false",

@@ -80,6 +80,8 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--rounds", type=int, default=40,
                     help="groups tried per target without a hit (default %(default)s)")
     ap.add_argument("--n-max", type=int, default=64)
+    ap.add_argument("--k-max", type=int, default=MAX_K,
+                    help=f"largest dimension (default and at most {MAX_K})")
     ap.add_argument("--pool", type=int, default=1, help="processes")
     ap.add_argument("--seed", type=int, default=SEED)
     args = ap.parse_args(argv)
@@ -92,9 +94,9 @@ def main(argv: list[str] | None = None) -> int:
     with open_catalog(args.catalog) as cat:
         rows = cat.distance_table(range(1, args.n_max + 1))
     tasks = [(r["n"], r["k"], r["d"], r["bound"], args.rounds, args.seed) for r in rows
-             if r["d"] < r["bound"] and 2 <= r["k"] <= MAX_K]
+             if r["d"] < r["bound"] and 2 <= r["k"] <= min(args.k_max, MAX_K)]
     tasks.sort(key=lambda t: (t[1], t[0]))
-    log(f"{len(tasks)} open cells with k <= {MAX_K}, n <= {args.n_max}")
+    log(f"{len(tasks)} open cells with k <= {min(args.k_max, MAX_K)}, n <= {args.n_max}")
     found: list[tuple[list[str], int]] = []
     with multiprocessing.get_context("spawn").Pool(args.pool) as pool:
         for task, hits in zip(tasks, pool.imap(search_cell, tasks), strict=True):
