@@ -67,7 +67,7 @@ def search_cell(task: tuple[int, int, int, int, int, int]) -> list[tuple[list[st
         res = minimum_distance(code)
         if code.k != k or not res.exact or res.d < D:  # pragma: no cover - a solver slip
             continue
-        out.append(([str(r) for r in F.from_rows(code.G).recipe[0]["generator"]], res.d))
+        out.append((list(code.recipe[0]["generator"]), res.d))  # the echelon rows
         D = res.d + 1
         tries = 0
     return out

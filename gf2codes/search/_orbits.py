@@ -48,9 +48,11 @@ from ..code import Code
 from ._base import Strategy
 
 __all__ = ["OrbitProgram", "OrbitSystem", "orbit_system", "solve_orbit_system",
-           "random_invertible", "MAX_K", "MIN_ORBITS", "MAX_ORBITS", "NODE_LIMIT"]
+           "orbit_code", "random_invertible", "MAX_K", "MIN_ORBITS", "MAX_ORBITS", "NODE_LIMIT"]
 
-#: Largest dimension tried (the columns are all ``2^k - 1`` nonzero vectors).
+#: Largest dimension tried (the columns are all ``2^k - 1`` nonzero vectors). With the
+#: orbit counts below, orbits at k >= 12 hold dozens of columns, so short codes there are
+#: rarely unions of them (no find at k >= 12, n <= 64 in the seed's targeted run).
 MAX_K = 14
 #: Number of orbits aimed at (fewer only when the space has fewer points).
 MIN_ORBITS = 20
