@@ -31,6 +31,14 @@ def odd(v):  # pragma: no cover - compiled
     return v & 1
 
 
+@kernel("void(int64[::1], int64, int64, int64)", inline="always")
+def tally(count, x, size, delta):  # pragma: no cover - compiled
+    """Add ``delta`` to ``count[u]`` for every ``u`` with ``u . x = 1``."""
+    for u in range(1, size):
+        if odd(u & x):
+            count[u] += delta
+
+
 @kernel("int64(int64[::1], int64[::1], int64[::1], int64[::1], int64[::1], int64[:, ::1], "
         "int64[::1], int64, int64, int64, int64)", nogil=True)
 def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
@@ -63,10 +71,7 @@ def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
                 state[3] = 1
                 state[0] = 0
                 return 2
-            x = chosen[depth]
-            for u in range(1, size):
-                if odd(u & x):
-                    count[u] -= 1
+            tally(count, chosen[depth], size, -1)
             if first_only:
                 state[0] = depth
                 return 1
@@ -82,9 +87,7 @@ def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
                     ok = False
                     break
             if ok:
-                for u in range(1, size):
-                    if odd(u & x):
-                        count[u] += 1
+                tally(count, x, size, 1)
                 chosen[depth] = x
                 nxt[depth] = x + 1
                 depth += 1
@@ -102,7 +105,4 @@ def extension_dfs(low, high, count, chosen, nxt, sols, state, m, s, max_nodes,
             state[3] = 1
             state[0] = 0
             return 2
-        x = chosen[depth]
-        for u in range(1, size):
-            if odd(u & x):
-                count[u] -= 1
+        tally(count, chosen[depth], size, -1)
