@@ -110,9 +110,13 @@ def test_lp_implies_hamming_and_plotkin_large(n):
         assert lp.kmax_lp(n, d + 1) <= k, (n, d)
 
 
-def test_lp_targets_of_issue_14():
+def test_lp_target_of_issue_14_at_128():
     # Hamming bound d <= 31 at [128,64] (computed by kmax_hamming); the LP must imply it
     assert lp.lp_value(128, 64) <= 31
+
+
+@pytest.mark.slow
+def test_lp_target_of_issue_14_at_256():
     assert lp.lp_value(256, 128) <= 60  # Hamming bound at [256,128] is 60 (kmax_hamming)
 
 

@@ -21,7 +21,7 @@ def _fresh(tmp_path, monkeypatch, name: str) -> None:
 
 def test_remembered_rows_give_the_computed_bounds(tmp_path, monkeypatch):
     _fresh(tmp_path, monkeypatch, "a")
-    cells = [(200, 100), (255, 231), (160, 7), (131, 130)]
+    cells = [(150, 75), (255, 231), (160, 7), (131, 130)]
     computed = [best_upper(n, k) for n, k in cells]
     T._rows_memo().flush()
     saved = json.loads((tmp_path / "a" / "bound-rows.json").read_text())

@@ -107,6 +107,7 @@ def test_killed_pool_worker_is_replaced_and_its_task_rerun(remote_levels):
     assert r.at_least(target) is True and r.lower >= target
 
 
+@pytest.mark.slow  # about 20 s (the nanny restarts the worker); the pool twin below is fast
 def test_killed_dask_worker_task_is_rerun(remote_levels, dask_cluster):
     C, target = _bch_target()
     client = dask_cluster.client
