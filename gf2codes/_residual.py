@@ -396,8 +396,10 @@ class ResidualSearch:
         for w in range(max(d, 1), n + 1):
             if griesmer_length(k, w) > n:
                 break
-            for res in self.classify(n - w, k - 1, -(-w // 2)):
-                self._note = f"[{n},{k},{d}]: weight {w}, extending residuals"
+            residuals = self.classify(n - w, k - 1, -(-w // 2))
+            for i, res in enumerate(residuals, 1):
+                self._note = (f"[{n},{k},{d}]: weight {w}, extending residual {i} of "
+                              f"{len(residuals)}")
                 found = extensions(res, n - w, w, compiled=self.compiled, first_only=True,
                                    tick=self._tick)
                 if found:
