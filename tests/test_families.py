@@ -383,6 +383,7 @@ def test_base_codes_are_those_of_the_old_hand_written_list():
         "315a812db52ca026bbff5482dcfec47b4b884ae2870df4ed4afe615e3cb6af9a")
 
 
+@pytest.mark.slow  # 8 s; the quick seed build stays in the fast suite
 def test_seed_script_offers_the_old_family_candidates():
     """scripts/build_catalog.families iterates the parameter spaces: the same 1418
     candidates in the same order as its old hand-written loops (digest computed once
