@@ -440,6 +440,31 @@ def test_new_catalog_starts_from_the_shipped_records(tmp_path):
         assert cat.import_shipped().added == 0  # idempotent
 
 
+def test_an_existing_catalog_takes_a_newer_shipped_seed(tmp_path, monkeypatch):
+    lines = (ROOT / "catalog" / "seed.jsonl").read_text().splitlines()
+    shipped = tmp_path / "shipped"
+    shipped.mkdir()
+    monkeypatch.setenv("GF2CODES_SHIPPED_CATALOG", str(shipped))
+    (shipped / "seed.jsonl").write_text("\n".join(lines[:20]) + "\n")
+    with open_catalog(tmp_path / "old.sqlite") as cat:
+        first = len(cat)
+        gone = cat.entries()[0].id
+        cat.remove(gone)
+    with open_catalog(tmp_path / "empty.sqlite", shipped=False) as cat:
+        assert len(cat) == 0
+    with open_catalog(tmp_path / "old.sqlite") as cat:  # same seed: the removal stays
+        assert len(cat) == first - 1
+    (shipped / "seed.jsonl").write_text("\n".join(lines[:40]) + "\n")  # a newer seed
+    with open_catalog(tmp_path / "new.sqlite") as cat:
+        want = len(cat)
+    assert want > first
+    with open_catalog(tmp_path / "old.sqlite") as cat:
+        assert len(cat) == want  # the missing records, the removed one with them
+        assert cat.import_shipped().added == 0
+    with open_catalog(tmp_path / "empty.sqlite", shipped=False) as cat:
+        assert len(cat) == 0  # created empty: never filled behind the user's back
+
+
 
 
 def test_length_table_rows(cat):

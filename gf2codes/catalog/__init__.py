@@ -63,8 +63,10 @@ shipped record), but their distances are not: each record's weight distribution 
 computed when ``2^min(k, n-k)`` is small (a proof made here, a few milliseconds in all
 for the current seed), and the others are stored as checked claims, so creating a
 catalog still takes a fraction of a second. ``open_catalog(path, shipped=False)``
-creates an empty catalog instead. A catalog created before a newer seed was shipped
-can take it with :meth:`Catalog.import_shipped` (idempotent: nothing is stored twice).
+creates an empty catalog instead. A catalog that took the shipped seed keeps its
+digest; when a newer gf2codes ships a different seed, the next writable open imports the
+missing records once (idempotent: nothing is stored twice; a catalog created empty is
+never filled), and :meth:`Catalog.import_shipped` does the same on request.
 
 Equivalence (:mod:`gf2codes.equivalence`)
 -----------------------------------------

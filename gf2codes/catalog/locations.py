@@ -5,7 +5,7 @@ from __future__ import annotations
 import os
 from pathlib import Path
 
-__all__ = ["default_catalog_path", "shipped_catalog_dir"]
+__all__ = ["default_catalog_path", "shipped_catalog_dir", "shipped_digest"]
 
 #: The package folder (``gf2codes/``): the seed is ``../catalog`` in a source checkout,
 #: ``_seed`` in an installed package.
@@ -37,3 +37,16 @@ def shipped_catalog_dir() -> Path | None:
         return here
     installed = _PACKAGE / "_seed"
     return installed if installed.is_dir() else None
+
+
+def shipped_digest() -> str | None:
+    """SHA-256 of the shipped seed files (names and contents), or None if there are none."""
+    import hashlib
+
+    folder = shipped_catalog_dir()
+    if folder is None:
+        return None
+    h = hashlib.sha256()
+    for path in sorted(folder.glob("*.jsonl")):
+        h.update(path.name.encode() + b"\0" + path.read_bytes() + b"\0")
+    return h.hexdigest()

@@ -38,7 +38,7 @@ from .entry import (
     now,
     read_provenance,
 )
-from .locations import default_catalog_path, shipped_catalog_dir
+from .locations import default_catalog_path, shipped_catalog_dir, shipped_digest
 from .propagation import (
     NO_LENGTH,
     EntryArrays,
@@ -100,8 +100,31 @@ class Catalog:
         self._arrays: EntryArrays | None = None
         self._arrays_version: tuple[Any, Any] | None = None
         self._init_schema(shipped)
+        self._take_newer_shipped()
 
     # ---------------------------------------------------------------- opening
+    def _take_newer_shipped(self) -> None:
+        """Import a newer shipped seed into a catalog that took an older one.
+
+        A catalog that imported the shipped records records their digest; when the
+        shipped files differ (a newer gf2codes, a regenerated seed), the missing records
+        are imported once (idempotent: nothing is stored twice), so an existing catalog
+        answers what a new one would. Catalogs created empty, read-only ones and
+        catalogs already at the current digest are left alone. Shipped entries the user
+        removed come back only when the seed itself changes.
+        """
+        if self.readonly or self._memory:
+            return
+        meta = dict(self._con.execute(
+            "SELECT key, value FROM meta WHERE key IN ('shipped_imported', 'shipped_digest')"))
+        if "shipped_imported" not in meta:
+            return
+        digest = shipped_digest()
+        if digest is None or meta.get("shipped_digest") == digest:
+            return
+        with self.transaction() as cur:
+            self._import_shipped(cur)
+
     def require_writable(self, what: str = "change it") -> None:
         """Raise :class:`CatalogError` when the catalog is read-only for this process."""
         if self.readonly:
@@ -672,6 +695,8 @@ class Catalog:
             self._store_all(cur, ready, report, "shipped")
         cur.execute("INSERT OR REPLACE INTO meta VALUES ('shipped_imported', ?)",
                     (f"{__version__} at {now()}",))
+        cur.execute("INSERT OR REPLACE INTO meta VALUES ('shipped_digest', ?)",
+                    (shipped_digest(),))
         return report
 
     # ---------------------------------------------------------------- proving claims
